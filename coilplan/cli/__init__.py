@@ -1,0 +1,97 @@
+"""The ``coilplan`` command line: a thin layer that parses, calls the library and renders.
+
+Commands are imported only when they run, so a plain solve does not pay for
+the imports of commands it does not use. Errors are mapped here, once: bad
+input is one line on stderr and exit status 2, an infeasible request one line
+and exit status 1, never a traceback.
+"""
+
+from __future__ import annotations
+
+import importlib
+import sys
+
+import click
+
+from coilplan.errors import InfeasibleError, InvalidInputError
+
+__all__ = ["main"]
+
+# command name -> (module under coilplan.cli, function, one-line help)
+_COMMANDS: dict[str, tuple[str, str, str]] = {
+    "solenoid": ("solenoid", "solenoid", "Single-layer air-core coil: inductance from turns, or turns for a target."),
+    "wire": ("wire", "wire", "Wire gauges: bare and enamelled diameters, resistance, current."),
+}
+
+
+class _CoilplanGroup(click.Group):
+    """A click group with lazily imported commands and one-line errors."""
+
+    def list_commands(self, ctx: click.Context) -> list[str]:
+        return sorted(_COMMANDS)
+
+    def get_command(self, ctx: click.Context, cmd_name: str) -> click.Command | None:
+        if cmd_name not in _COMMANDS:
+            return None
+        module_name, attribute, _ = _COMMANDS[cmd_name]
+        module = importlib.import_module(f"coilplan.cli.{module_name}")
+        return getattr(module, attribute)
+
+    def format_commands(self, ctx: click.Context, formatter: click.HelpFormatter) -> None:
+        # Short help from the table, without importing every command module.
+        rows = [(name, _COMMANDS[name][2]) for name in self.list_commands(ctx)]
+        with formatter.section("Commands"):
+            formatter.write_dl(rows)
+
+    def main(self, args=None, prog_name=None, complete_var=None, standalone_mode=True, **extra):
+        try:
+            code = super().main(args=args, prog_name=prog_name or "coilplan",
+                                complete_var=complete_var, standalone_mode=False, **extra)
+        except click.BadParameter as error:
+            code = _fail(_bad_parameter_text(error), 2)
+        except click.UsageError as error:
+            where = error.ctx.command_path if error.ctx else "coilplan"
+            code = _fail(f"{error.format_message()} (see '{where} --help')", 2)
+        except InvalidInputError as error:
+            code = _fail(str(error), 2)
+        except InfeasibleError as error:
+            code = _fail(f"cannot be done: {error}", 1)
+        except click.ClickException as error:
+            code = _fail(error.format_message(), error.exit_code)
+        except click.Abort:
+            code = _fail("aborted", 1)
+        except BrokenPipeError:  # output piped into `head`: not an error of ours
+            code = 0
+        code = code if isinstance(code, int) else 0
+        if standalone_mode:
+            sys.exit(code)
+        return code
+
+
+def _bad_parameter_text(error: click.BadParameter) -> str:
+    if error.param is not None and error.param.opts:
+        name = max(error.param.opts, key=len)
+    elif error.param is not None:
+        name = error.param.human_readable_name
+    else:
+        name = error.param_hint or "value"
+    return f"{name}: {error.message}"
+
+
+def _fail(message: str, code: int) -> int:
+    """Print one line on stderr and return the exit status."""
+    message = " ".join(str(message).split())
+    click.echo(f"coilplan: error: {message}", err=True)
+    return code
+
+
+@click.group(cls=_CoilplanGroup, context_settings={"help_option_names": ["-h", "--help"],
+                                                    "max_content_width": 100})
+@click.version_option(package_name="coilplan", prog_name="coilplan")
+def main() -> None:
+    """Plan coil windings: inductance from turns, turns for a target, and the trim
+    of a coil you have measured.
+
+    Values take their units, as on a datasheet: 10uH, 220pF, 1.2MHz, 25mm, 1in, 20mil.
+    Add --json to any command for machine-readable output (SI units, unit in the key).
+    """

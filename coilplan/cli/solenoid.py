@@ -1,0 +1,73 @@
+"""``coilplan solenoid``: a single-layer air-core coil, forward or inverse."""
+
+from __future__ import annotations
+
+import click
+
+from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._types import CountType, QuantityType, TemperatureType
+from coilplan.errors import InvalidInputError
+from coilplan.forms import SOLENOID_METHODS, Solenoid
+from coilplan.report.solenoid_text import solenoid_lines
+from coilplan.results import solenoid_result
+from coilplan.wire import parse_wire
+
+__all__ = ["solenoid"]
+
+LENGTH = QuantityType("m")
+
+
+def _one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
+    (name_a, value_a), (name_b, value_b) = first, second
+    if value_a is None and value_b is None:
+        raise InvalidInputError(name_a, f"one of {name_a} or {name_b}", None)
+    if value_a is not None and value_b is not None:
+        raise InvalidInputError(name_a, f"either {name_a} or {name_b}, not both", None)
+
+
+@click.command()
+@click.option("--turns", type=CountType(), help="Turns wound (forward: gives the inductance).")
+@click.option("--target", type=QuantityType("H"), help="Inductance wanted, e.g. 10uH (inverse: gives the turns).")
+@click.option("--former", type=LENGTH, help="Outside diameter of the former, e.g. 25mm.")
+@click.option("--diameter", type=LENGTH, help="Coil diameter to the wire centres (instead of --former).")
+@click.option("--wire", "wire_text", required=True,
+              help="Bare wire diameter (0.5mm, 20mil) or gauge (24awg, 26swg).")
+@click.option("--grade", type=click.Choice(["1", "2", "3", "bare"]), default="1", show_default=True,
+              help="Enamel grade (IEC 60317), or bare wire.")
+@click.option("--overall", type=LENGTH, help="Measured overall (insulated) wire diameter; overrides --grade.")
+@click.option("--pitch", type=LENGTH, help="Distance between turn centres; default close wound.")
+@click.option("--length", type=LENGTH, help="Fixed winding length to spread the turns over (instead of --pitch).")
+@click.option("--max-length", type=LENGTH, help="Usable length of the former; the winding must fit.")
+@click.option("--lead", type=QuantityType("m", allow_zero=True), default="0mm", show_default=True,
+              help="Lead allowance per end, added to the wire to cut.")
+@click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
+              help="Winding temperature for a second DC resistance figure.")
+@click.option("--method", type=click.Choice(list(SOLENOID_METHODS)), default="nagaoka-rosa",
+              show_default=True, help="Inductance method (see the README for accuracy).")
+@json_option
+def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, length, max_length,
+             lead, temperature, method, as_json):
+    """Single-layer air-core coil on a round former.
+
+    Forward: --turns N gives the inductance. Inverse: --target gives the whole
+    number of turns to wind, with the inductance of the whole numbers either side.
+    The coil diameter is to the wire centres: former + overall wire diameter.
+    """
+    _one_of(("--turns", turns), ("--target", target))
+    _one_of(("--former", former), ("--diameter", diameter))
+    wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
+    coil_diameter = diameter if diameter is not None else former + wire.overall_diameter
+    with captured_warnings() as warnings_:
+        form = Solenoid(diameter=coil_diameter, wire=wire, pitch=pitch, length=length,
+                        max_length=max_length, lead=lead, method=method)
+        result = solenoid_result(form, turns=turns, target=target, temperature_C=temperature,
+                                 former_diameter=former)
+    inputs = {
+        "turns": turns, "target_H": target, "former_diameter_m": former, "diameter_m": diameter,
+        "wire": wire_text, "grade": grade, "overall_diameter_m": overall, "pitch_m": pitch,
+        "length_m": length, "max_length_m": max_length, "lead_m": lead,
+        "temperature_C": temperature, "method": method,
+    }
+    emit(command="solenoid", as_json=as_json,
+         inputs={key: value for key, value in inputs.items() if value is not None},
+         result=result, warnings_=warnings_, cautions=[], render=solenoid_lines)

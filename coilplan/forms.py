@@ -1,0 +1,242 @@
+"""Coil forms: one class per kind of coil, each answering the form protocol.
+
+The protocol (design.md) is what lets one solver serve every form. A form
+answers, vectorised over turns N (float arrays allowed for root finding):
+
+``inductance(N)``     low-frequency inductance, H
+``min_turns()``       fewest turns the form allows (1 for a winding)
+``max_turns()``       most turns that fit (``math.inf`` when nothing limits it)
+``limit_reason(N)``   the limit in words, for infeasible requests
+``wire_length(N)``    wire to cut, m, leads included
+``resistance(N)``     DC resistance at a temperature, ohm
+
+Forms check their inputs and raise :class:`~coilplan.errors.InvalidInputError`
+naming the command-line option, so the command line and the library give the
+same message.
+"""
+
+from __future__ import annotations
+
+import math
+import warnings
+from dataclasses import dataclass
+from typing import Literal, Protocol, get_args
+
+import numpy as np
+
+from coilplan.errors import InvalidInputError, OutsideValidityWarning
+from coilplan.physics import loops, solenoid
+from coilplan.quantities import format_length
+from coilplan.wire import Wire
+
+__all__ = ["SOLENOID_METHODS", "CoilForm", "Solenoid", "SolenoidMethod"]
+
+SolenoidMethod = Literal["nagaoka-rosa", "filament", "sheet", "lundin", "wheeler-1982",
+                         "wheeler-1928"]
+
+#: Each solenoid method: (what it computes, its accuracy and source), in words.
+SOLENOID_METHODS: dict[str, tuple[str, str]] = {
+    "nagaoka-rosa": ("Nagaoka current sheet (exact) with Rosa's round-wire corrections",
+                     "a few parts in 10,000 for an even winding of round wire (NBS method, Knight)"),
+    "filament": ("turn-by-turn sum: Maxwell's mutual inductance of coaxial circles "
+                 "and each turn's round-wire self-inductance",
+                 "helix pitch ignored; within a few parts in 10,000 of nagaoka-rosa"),
+    "sheet": ("Nagaoka current sheet (exact), no round-wire corrections",
+              "exact for a sheet; a real close-wound coil of few turns reads a few percent less"),
+    "lundin": ("Lundin 1985 approximation of the current sheet, no round-wire corrections",
+               "about 3 ppm of the sheet (Lundin)"),
+    "wheeler-1982": ("Wheeler 1982 approximation of the current sheet, no round-wire corrections",
+                     "within 2e-5 of the sheet (computed here; no claim found)"),
+    "wheeler-1928": ("Wheeler 1928 approximation of the current sheet, no round-wire corrections",
+                     "about 1 % for a winding longer than 0.8 × radius (Wheeler)"),
+}
+
+
+class CoilForm(Protocol):
+    """What the solver and the reports need of any coil form."""
+
+    def inductance(self, turns): ...
+
+    def min_turns(self) -> float: ...
+
+    def max_turns(self) -> float: ...
+
+    def limit_reason(self, turns: float, lowest: bool = False) -> str: ...
+
+    def wire_length(self, turns): ...
+
+    def resistance(self, turns, temperature_C: float = 20.0): ...
+
+
+def _positive(value: float | None, option: str, what: str) -> None:
+    if value is not None and not (math.isfinite(value) and value > 0):
+        raise InvalidInputError(option, f"{what} above zero", value)
+
+
+@dataclass(frozen=True)
+class Solenoid:
+    """Single-layer air-core solenoid of round wire, wound at an even pitch.
+
+    Parameters
+    ----------
+    diameter : float
+        Coil diameter to the wire centres, m (a former's outside diameter plus
+        the overall wire diameter).
+    wire : Wire
+        The wire; its overall (insulated) diameter sets the close-wound pitch.
+    pitch : float, optional
+        Distance between turn centres, m; default close wound (the overall wire
+        diameter). Exclusive with ``length``.
+    length : float, optional
+        A fixed winding length, m, over which the turns are spread evenly, each
+        owning length/N of it. Exclusive with ``pitch``.
+    max_length : float, optional
+        Usable length of the former, m: the winding, end to end, must fit it.
+    lead : float
+        Lead allowance per end, m, added twice to the wire to cut.
+    method : str
+        One of :data:`SOLENOID_METHODS`.
+    """
+
+    diameter: float
+    wire: Wire
+    pitch: float | None = None
+    length: float | None = None
+    max_length: float | None = None
+    lead: float = 0.0
+    method: SolenoidMethod = "nagaoka-rosa"
+
+    def __post_init__(self) -> None:
+        _positive(self.diameter, "--diameter", "a coil diameter")
+        _positive(self.pitch, "--pitch", "a pitch")
+        _positive(self.length, "--length", "a winding length")
+        _positive(self.max_length, "--max-length", "a usable former length")
+        if not (math.isfinite(self.lead) and self.lead >= 0):
+            raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+        if self.method not in get_args(SolenoidMethod):
+            raise InvalidInputError("--method", "one of " + ", ".join(get_args(SolenoidMethod)),
+                                    self.method)
+        overall = self.wire.overall_diameter
+        if self.pitch is not None and self.length is not None:
+            raise InvalidInputError("--pitch", "either --pitch or --length, not both", None)
+        if self.pitch is not None and self.pitch < overall * (1 - 1e-9):
+            raise InvalidInputError(
+                "--pitch", f"a pitch of at least the overall wire diameter "
+                f"{format_length(overall)} (turns cannot overlap)", format_length(self.pitch))
+        if self.diameter <= overall:
+            raise InvalidInputError("--diameter", f"a coil diameter above the overall wire "
+                                    f"diameter {format_length(overall)}",
+                                    format_length(self.diameter))
+        if self.length is not None and self.length < overall:
+            raise InvalidInputError("--length", f"a winding length of at least one wire diameter "
+                                    f"({format_length(overall)})", format_length(self.length))
+        if (self.length is not None and self.max_length is not None
+                and self.length > self.max_length * (1 + 1e-12)):
+            raise InvalidInputError("--length", f"a winding length within the usable "
+                                    f"{format_length(self.max_length)} of the former",
+                                    format_length(self.length))
+        if self.max_length is not None and self.max_length < overall:
+            raise InvalidInputError("--max-length", f"a usable length of at least one wire "
+                                    f"diameter ({format_length(overall)})",
+                                    format_length(self.max_length))
+
+    # geometry -----------------------------------------------------------------
+    def pitch_at(self, turns):
+        """Pitch, m, at ``turns`` (constant unless the winding length is fixed)."""
+        turns = np.asarray(turns, dtype=float)
+        if self.length is not None:
+            return self.length / turns
+        pitch = self.wire.overall_diameter if self.pitch is None else self.pitch
+        return np.full(turns.shape, pitch)[()]
+
+    def winding_length(self, turns):
+        """Length the winding occupies end to end, m: (N − 1)·p + overall wire diameter."""
+        turns = np.asarray(turns, dtype=float)
+        return (turns - 1.0) * self.pitch_at(turns) + self.wire.overall_diameter
+
+    def sheet_length(self, turns):
+        """Current-sheet length used by the model, m: N·p (each turn owns one pitch)."""
+        turns = np.asarray(turns, dtype=float)
+        return turns * self.pitch_at(turns)
+
+    # protocol -----------------------------------------------------------------
+    def min_turns(self) -> float:
+        return 1.0
+
+    def max_turns(self) -> float:
+        overall = self.wire.overall_diameter
+        if self.length is not None:
+            return self.length / overall  # pitch may not fall below the wire
+        if self.max_length is not None:
+            pitch = self.pitch_at(1.0)
+            return (self.max_length - overall) / pitch + 1.0
+        return math.inf
+
+    def limit_reason(self, turns: float, lowest: bool = False) -> str:
+        if lowest:
+            return "a single turn of this wire at this diameter"
+        whole = math.floor(turns + 1e-9)
+        if self.length is not None:
+            return (f"{whole} close-wound turns fill the fixed {format_length(self.length)} "
+                    f"winding length")
+        return (f"{whole} turns at {format_length(float(self.pitch_at(1.0)))} pitch fill the "
+                f"{format_length(self.max_length)} usable length of the former")
+
+    def inductance(self, turns):
+        """Low-frequency inductance, H, by this form's ``method``; vectorised over turns.
+
+        Range warnings are held back here (the solver probes turn counts far from
+        the answer); :meth:`validity_warnings` gives them for the turns chosen.
+        """
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore", OutsideValidityWarning)
+            return self._inductance(np.asarray(turns, dtype=float))
+
+    def _inductance(self, turns: np.ndarray):
+        pitch = self.pitch_at(turns)
+        if self.method == "nagaoka-rosa":
+            return solenoid.solenoid_inductance(self.diameter, pitch, self.wire.diameter, turns)
+        if self.method == "filament":
+            return self._filament_inductance(turns)
+        coefficient = {
+            "sheet": solenoid.nagaoka_coefficient,
+            "lundin": solenoid.lundin_coefficient,
+            "wheeler-1982": solenoid.wheeler_1982_coefficient,
+            "wheeler-1928": solenoid.wheeler_1928_coefficient,
+        }[self.method]
+        return solenoid.current_sheet_inductance(self.diameter, turns * pitch, turns, coefficient)
+
+    def _filament_inductance(self, turns: np.ndarray):
+        """Filament sum at whole turns; linear between whole numbers for the root finder."""
+        flat = np.atleast_1d(turns).ravel()
+        low = np.maximum(np.floor(flat), 1.0)
+        wanted = np.unique(np.concatenate([low, low + 1.0]))
+        values = {n: float(loops.solenoid_filament_inductance(
+            self.diameter, float(self.pitch_at(n)), self.wire.diameter, int(n))) for n in wanted}
+        value_low = np.array([values[n] for n in low])
+        value_high = np.array([values[n + 1.0] for n in low])
+        result = value_low + (flat - low) * (value_high - value_low)
+        return result.reshape(np.shape(turns))[()] if np.ndim(turns) == 0 else \
+            result.reshape(np.shape(turns))
+
+    def wire_length(self, turns):
+        """Wire to cut, m: N helical turns of length √((πD)² + p²) plus a lead at each end."""
+        turns = np.asarray(turns, dtype=float)
+        per_turn = np.hypot(np.pi * self.diameter, self.pitch_at(turns))
+        return turns * per_turn + 2.0 * self.lead
+
+    def resistance(self, turns, temperature_C: float = 20.0):
+        """DC resistance of the wire to cut, ohm, at ``temperature_C``."""
+        return self.wire_length(turns) * self.wire.resistance_per_metre(temperature_C)
+
+    def validity_warnings(self, turns: float) -> None:
+        """Warn (OutsideValidityWarning) where the method is used outside its stated range."""
+        ratio = self.diameter / float(self.sheet_length(turns))
+        if self.method == "wheeler-1928" and ratio > 2.5:
+            warnings.warn("Wheeler's 1928 formula is outside its stated range here (winding "
+                          "length below 0.8 × radius); expect errors of several percent",
+                          OutsideValidityWarning, stacklevel=2)
+        if self.wire.diameter > 0.1 * self.diameter:
+            warnings.warn("the wire is thick against the coil diameter (over a tenth of it): the "
+                          "round-wire corrections assume a thin wire; expect about 1 % error",
+                          OutsideValidityWarning, stacklevel=2)

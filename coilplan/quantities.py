@@ -1,0 +1,309 @@
+"""Engineering quantities as a bench user types them, and back.
+
+``parse_quantity("75uH", "H")`` reads one value in one expected unit and
+returns it in SI base units; :func:`format_quantity` renders an SI value with
+an SI prefix and the Greek micro sign. The parser is strict where a slip would
+silently change a value by orders of magnitude:
+
+* a decimal comma is refused (``"1,5mm"`` would otherwise read as 15 mm);
+* a bare number is refused where a unit is needed (``"25"`` for a length);
+* a prefix alone is accepted for electrical units (``"10u"`` = 10 µH when an
+  inductance is expected), never for lengths, where ``"m"`` is the metre;
+* ``u``, ``µ`` (micro sign) and ``μ`` (Greek mu) all mean micro; ``K`` is
+  accepted for kilo; the unit symbol itself is case-blind (``75uh``), the
+  prefix is not (``m`` milli, ``M`` mega).
+
+Lengths also take inches (``in``, ``inch``, ``"``) and mils (``mil``, ``thou``).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from decimal import Decimal
+
+from coilplan.errors import InvalidInputError
+
+__all__ = [
+    "UNIT_NAMES",
+    "format_length",
+    "format_quantity",
+    "parse_count",
+    "parse_quantity",
+    "parse_temperature",
+]
+
+#: What each unit symbol measures, for messages ("expected an inductance ...").
+UNIT_NAMES: dict[str, str] = {
+    "H": "an inductance",
+    "F": "a capacitance",
+    "Hz": "a frequency",
+    "m": "a length",
+    "ohm": "a resistance",
+    "A": "a current",
+    "V": "a voltage",
+    "T": "a flux density",
+    "H/t2": "an AL value (inductance per turn squared)",
+}
+
+_EXAMPLES: dict[str, str] = {
+    "H": "10uH",
+    "F": "220pF",
+    "Hz": "1.2MHz",
+    "m": "25mm or 1in",
+    "ohm": "0.5ohm",
+    "A": "2A",
+    "V": "12V",
+    "T": "0.3T",
+    "H/t2": "420nH",
+}
+
+_PREFIXES: dict[str, Decimal] = {
+    "p": Decimal("1e-12"),
+    "n": Decimal("1e-9"),
+    "u": Decimal("1e-6"),
+    "U": Decimal("1e-6"),
+    "\u00b5": Decimal("1e-6"),  # micro sign
+    "\u03bc": Decimal("1e-6"),  # Greek small letter mu
+    "m": Decimal("1e-3"),
+    "k": Decimal("1e3"),
+    "K": Decimal("1e3"),
+    "M": Decimal("1e6"),
+    "G": Decimal("1e9"),
+}
+
+# Unit spellings, matched case-blind, for each expected unit.
+_SYMBOLS: dict[str, tuple[str, ...]] = {
+    "H": ("h", "henry", "henries", "henrys"),
+    "F": ("f", "farad", "farads"),
+    "Hz": ("hz",),
+    "ohm": ("ohm", "ohms", "\u03c9", "\u2126"),
+    "A": ("a", "amp", "amps"),
+    "V": ("v", "volt", "volts"),
+    "T": ("t", "tesla"),
+    "H/t2": ("h", "h/t2", "h/turn2", "h/n2"),
+}
+
+# Length suffixes (case-blind except that "M" is not a length prefix).
+_LENGTH_UNITS: dict[str, Decimal] = {
+    "m": Decimal(1),
+    "cm": Decimal("1e-2"),
+    "mm": Decimal("1e-3"),
+    "um": Decimal("1e-6"),
+    "\u00b5m": Decimal("1e-6"),
+    "\u03bcm": Decimal("1e-6"),
+    "in": Decimal("0.0254"),
+    "inch": Decimal("0.0254"),
+    "inches": Decimal("0.0254"),
+    '"': Decimal("0.0254"),
+    "mil": Decimal("25.4e-6"),
+    "mils": Decimal("25.4e-6"),
+    "thou": Decimal("25.4e-6"),
+}
+
+_NUMBER = re.compile(r"^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*)$")
+
+
+def _fail(option: str, unit: str, text: str, why: str = "") -> InvalidInputError:
+    what = UNIT_NAMES.get(unit, f"a value in {unit}")
+    expected = f"{what} such as {_EXAMPLES.get(unit, '1' + unit)}"
+    if why:
+        expected += f" ({why})"
+    return InvalidInputError(option, expected, text)
+
+
+def _split_number(text: str, option: str, unit: str) -> tuple[Decimal, str]:
+    stripped = text.strip()
+    if not stripped:
+        raise _fail(option, unit, text, "the value is empty")
+    if "," in stripped:
+        raise _fail(option, unit, text, "write the decimal point as '.', not ','")
+    match = _NUMBER.match(stripped)
+    if match is None:
+        raise _fail(option, unit, text, "it must start with a number")
+    return Decimal(match.group(1)), match.group(2).strip()
+
+
+def _suffix_scale(suffix: str, unit: str) -> Decimal | None:
+    """Scale factor of ``suffix`` for ``unit``, or None if it does not fit."""
+    if unit == "m":
+        return _LENGTH_UNITS.get(suffix) or _LENGTH_UNITS.get(suffix.lower())
+    if suffix == "":
+        return None
+    spellings = _SYMBOLS[unit]
+    if suffix.lower() in spellings:
+        return Decimal(1)
+    prefix, rest = suffix[0], suffix[1:]
+    if prefix in _PREFIXES and (rest == "" or rest.lower() in spellings):
+        return _PREFIXES[prefix]
+    return None
+
+
+def parse_quantity(text: str, unit: str, option: str = "value", *,
+                   allow_zero: bool = False, allow_negative: bool = False) -> float:
+    """Read one quantity in one expected unit, returned in SI base units.
+
+    Parameters
+    ----------
+    text : str
+        What the user typed, e.g. ``"75uH"``, ``"75 µH"``, ``"0.5mm"``, ``"20mil"``.
+    unit : str
+        The expected unit: one of ``H F Hz m ohm A V T H/t2``.
+    option : str
+        The option name, for the error message.
+    allow_zero, allow_negative : bool
+        Whether zero or negative values are accepted (default: only > 0).
+
+    Returns
+    -------
+    float
+        The value in SI base units (H, F, Hz, m, ohm, A, V, T, H per turn²).
+
+    Raises
+    ------
+    InvalidInputError
+        Wrong or missing unit, decimal comma, not a number, not finite,
+        zero or negative where that is not allowed.
+
+    Examples
+    --------
+    >>> parse_quantity("75uH", "H")
+    7.5e-05
+    >>> parse_quantity("1 in", "m")
+    0.0254
+    >>> parse_quantity("10u", "H")
+    1e-05
+    """
+    if unit not in UNIT_NAMES:
+        raise ValueError(f"unit must be one of {sorted(UNIT_NAMES)}; got {unit!r}")
+    number, suffix = _split_number(str(text), option, unit)
+    scale = _suffix_scale(suffix, unit)
+    if scale is None:
+        if suffix == "":
+            why = "the unit is missing"
+        else:
+            why = f"'{suffix}' is not a unit of {UNIT_NAMES[unit].split(' ', 1)[1]}"
+        raise _fail(option, unit, text, why)
+    try:
+        value = float(number * scale)  # exact decimal product, rounded once
+    except ArithmeticError:  # decimal overflow of an absurd exponent
+        value = math.inf
+    if not math.isfinite(value) or (value == 0 and number != 0):
+        raise _fail(option, unit, text, "the number is out of range")
+    if value < 0 and not allow_negative:
+        raise _fail(option, unit, text, "it must not be negative")
+    if value == 0 and not allow_zero:
+        raise _fail(option, unit, text, "it must be above zero")
+    return value
+
+
+def parse_count(text: str, option: str = "value", *, minimum: int = 1) -> int:
+    """Read a whole count such as a number of turns.
+
+    Examples
+    --------
+    >>> parse_count("40", "--turns")
+    40
+    """
+    stripped = str(text).strip()
+    if not re.fullmatch(r"[+-]?\d+", stripped):
+        raise InvalidInputError(option, f"a whole number of at least {minimum}", text)
+    value = int(stripped)
+    if value < minimum:
+        raise InvalidInputError(option, f"a whole number of at least {minimum}", text)
+    return value
+
+
+def parse_temperature(text: str, option: str = "--temperature") -> float:
+    """Read a temperature in degrees Celsius (``60C``, ``60°C``, ``60degC``; ``333K``).
+
+    Returns
+    -------
+    float
+        Degrees Celsius.
+
+    Examples
+    --------
+    >>> parse_temperature("60C")
+    60.0
+    >>> round(parse_temperature("373.15K"), 6)
+    100.0
+    """
+    expected = "a temperature such as 20C or 60°C"
+    stripped = str(text).strip()
+    if "," in stripped:
+        raise InvalidInputError(option, expected + " (write the decimal point as '.')", text)
+    match = _NUMBER.match(stripped)
+    if match is None:
+        raise InvalidInputError(option, expected, text)
+    number, suffix = float(match.group(1)), match.group(2).strip()
+    if suffix.lower() in ("c", "°c", "degc", "\u2103"):
+        celsius = number
+    elif suffix == "K":
+        celsius = number - 273.15
+    else:
+        raise InvalidInputError(option, expected + " (the unit must be C or K)", text)
+    if not math.isfinite(celsius) or celsius < -273.15:
+        raise InvalidInputError(option, expected + " (above absolute zero)", text)
+    return celsius
+
+
+_FORMAT_PREFIXES = (
+    (1e9, "G"), (1e6, "M"), (1e3, "k"), (1.0, ""), (1e-3, "m"),
+    (1e-6, "\u03bc"), (1e-9, "n"), (1e-12, "p"), (1e-15, "f"),
+)
+
+
+def format_quantity(value: float, unit: str, digits: int = 4) -> str:
+    """Render an SI value with an SI prefix, e.g. ``format_quantity(1.02e-5, "H")``.
+
+    ``digits`` is the number of significant digits. The Greek mu stands for micro.
+    Non-finite values render as ``"n/a"``.
+
+    Examples
+    --------
+    >>> format_quantity(1.0204e-5, "H")
+    '10.20 μH'
+    >>> format_quantity(1.239e6, "Hz", 3)
+    '1.24 MHz'
+    >>> format_quantity(0.0, "ohm")
+    '0 Ω'
+    """
+    symbol = "Ω" if unit == "ohm" else unit
+    if not math.isfinite(value):
+        return "n/a"
+    if value == 0:
+        return f"0 {symbol}"
+    magnitude = abs(value)
+    for scale, prefix in _FORMAT_PREFIXES:
+        mantissa = magnitude / scale
+        # round first so that 999.96 shows as 1.000 k, not 1000 (no prefix change lost)
+        rounded = float(f"{mantissa:.{digits}g}")
+        if rounded >= 1 or scale == _FORMAT_PREFIXES[-1][0]:
+            if rounded >= 1000 and scale < 1e9:
+                continue
+            break
+    decimals = max(digits - 1 - int(math.floor(math.log10(rounded))), 0) if rounded else 0
+    sign = "-" if value < 0 else ""
+    return f"{sign}{rounded:.{decimals}f} {prefix}{symbol}"
+
+
+def format_length(value: float, digits: int = 4) -> str:
+    """Render a length in millimetres (below 1 m) or metres.
+
+    Examples
+    --------
+    >>> format_length(0.0125)
+    '12.50 mm'
+    >>> format_length(2.5)
+    '2.500 m'
+    """
+    if not math.isfinite(value):
+        return "n/a"
+    if abs(value) >= 1:
+        return format_quantity(value, "m", digits)
+    mm = value * 1e3
+    if mm == 0:
+        return "0 mm"
+    decimals = max(digits - 1 - int(math.floor(math.log10(abs(mm)))), 0)
+    return f"{mm:.{decimals}f} mm"

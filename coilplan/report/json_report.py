@@ -1,0 +1,59 @@
+"""The ``--json`` document: one object ``{command, inputs, result, warnings, cautions}``.
+
+Quantities are in SI base units with the unit in the key (``inductance_H``,
+``length_m``); counts are plain (``turns``). NaN and infinity are never
+written: a value that is not defined is ``null``.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+from collections.abc import Mapping, Sequence
+from typing import Any
+
+__all__ = ["json_document"]
+
+
+def _clean(value: Any) -> Any:
+    """Plain JSON types: numpy scalars to Python, non-finite floats to None."""
+    if isinstance(value, Mapping):
+        return {str(key): _clean(item) for key, item in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_clean(item) for item in value]
+    if hasattr(value, "tolist") and not isinstance(value, (str, bytes)):
+        return _clean(value.tolist())
+    if isinstance(value, bool) or value is None or isinstance(value, (int, str)):
+        return value
+    if isinstance(value, float):
+        return value if math.isfinite(value) else None
+    raise TypeError(f"cannot write {type(value).__name__} to JSON")
+
+
+def json_document(command: str, inputs: Mapping[str, Any], result: Mapping[str, Any],
+                  warnings: Sequence[str] = (), cautions: Sequence[str] = ()) -> str:
+    """Serialise one command's answer as the ``--json`` object (indented, sorted keys kept in order).
+
+    Examples
+    --------
+    >>> print(json_document("wire", {"wire": "24awg"}, {"diameter_m": 0.000510559}))
+    {
+      "command": "wire",
+      "inputs": {
+        "wire": "24awg"
+      },
+      "result": {
+        "diameter_m": 0.000510559
+      },
+      "warnings": [],
+      "cautions": []
+    }
+    """
+    document = {
+        "command": command,
+        "inputs": _clean(dict(inputs)),
+        "result": _clean(dict(result)),
+        "warnings": [str(text) for text in warnings],
+        "cautions": [str(text) for text in cautions],
+    }
+    return json.dumps(document, indent=2, ensure_ascii=False, allow_nan=False)

@@ -1,0 +1,123 @@
+"""Whole answers for one coil: the solve plus every figure a bench user needs, in SI.
+
+A result is a plain dict with SI values and the unit in the key
+(``inductance_H``, ``length_m``), ready for ``--json`` and for the text report.
+Building it here keeps the command line thin and lets scripts get the same
+answer as the command.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from coilplan.errors import InfeasibleError
+from coilplan.forms import SOLENOID_METHODS, Solenoid
+from coilplan.physics.solenoid import nagaoka_coefficient
+from coilplan.quantities import format_quantity
+from coilplan.solve import solve_turns
+
+__all__ = ["solenoid_result"]
+
+
+def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float | None = None,
+                    temperature_C: float = 20.0, former_diameter: float | None = None) -> dict:
+    """Forward (``turns``) or inverse (``target``) answer for a single-layer solenoid.
+
+    Parameters
+    ----------
+    form : Solenoid
+        The coil form.
+    turns : int, optional
+        Whole number of turns (forward). Exactly one of ``turns`` and ``target``.
+    target : float, optional
+        Target low-frequency inductance, H (inverse).
+    temperature_C : float
+        Temperature for the second DC resistance figure, °C.
+    former_diameter : float, optional
+        The former's outside diameter, m, when the user gave it (reported only).
+
+    Returns
+    -------
+    dict
+        ``turns`` (int), ``inductance_H``, ``diameter_m`` (to wire centres),
+        ``pitch_m``, ``length_m`` (winding, end to end), ``sheet_length_m``,
+        ``length_to_diameter``, ``nagaoka``, ``wire_length_m``,
+        ``dc_resistance_ohm`` (20 °C), ``dc_resistance_at_temperature_ohm``,
+        and for an inverse ``target_H``, ``turns_exact``, ``turns_below``,
+        ``turns_above``, ``inductance_below_H``, ``inductance_above_H``.
+
+    Raises
+    ------
+    InfeasibleError
+        The target cannot be reached within the form's limits, or the turns
+        do not fit.
+    """
+    if (turns is None) == (target is None):
+        raise ValueError("give exactly one of turns and target")
+    result: dict = {}
+    if target is not None:
+        solution = solve_turns(form, target)
+        chosen = int(solution.turns)
+        result.update(
+            target_H=float(target),
+            turns=chosen,
+            turns_exact=float(solution.turns_exact),
+            turns_below=int(solution.turns_below),
+            turns_above=int(solution.turns_above),
+            inductance_below_H=float(solution.inductance_below),
+            inductance_above_H=float(solution.inductance_above),
+        )
+    else:
+        chosen = int(turns)
+        _check_fits(form, chosen)
+        result["turns"] = chosen
+    form.validity_warnings(chosen)
+    sheet = float(form.sheet_length(chosen))
+    pitch = float(form.pitch_at(chosen))
+    result.update(
+        inductance_H=float(form.inductance(chosen)),
+        diameter_m=form.diameter,
+        pitch_m=pitch,
+        close_wound=bool(math.isclose(pitch, form.wire.overall_diameter, rel_tol=1e-9)),
+        length_m=float(form.winding_length(chosen)),
+        sheet_length_m=sheet,
+        length_to_diameter=sheet / form.diameter,
+        nagaoka=float(nagaoka_coefficient(form.diameter / sheet)),
+        wire_length_m=float(form.wire_length(chosen)),
+        lead_m=form.lead,
+        dc_resistance_ohm=float(form.resistance(chosen, 20.0)),
+        temperature_C=float(temperature_C),
+        dc_resistance_at_temperature_ohm=float(form.resistance(chosen, temperature_C)),
+        method=form.method,
+        method_note=SOLENOID_METHODS[form.method][0],
+        method_accuracy=SOLENOID_METHODS[form.method][1],
+        wire={
+            "label": form.wire.label,
+            "diameter_m": form.wire.diameter,
+            "overall_diameter_m": form.wire.overall_diameter,
+            "grade": form.wire.grade,
+        },
+    )
+    if former_diameter is not None:
+        result["former_diameter_m"] = former_diameter
+    if form.max_length is not None:
+        result["max_length_m"] = form.max_length
+    limit = form.max_turns()
+    if math.isfinite(limit):
+        result["max_turns"] = int(math.floor(limit + 1e-9))
+        result["max_inductance_H"] = float(form.inductance(float(math.floor(limit + 1e-9))))
+    return result
+
+
+def _check_fits(form: Solenoid, turns: int) -> None:
+    """Raise InfeasibleError when ``turns`` do not fit the former."""
+    limit = form.max_turns()
+    if turns > limit + 1e-9:
+        whole = int(math.floor(limit + 1e-9))
+        largest = float(np.asarray(form.inductance(float(whole)))) if whole >= 1 else math.nan
+        raise InfeasibleError(
+            f"{turns} turns do not fit: {form.limit_reason(limit)} "
+            f"(at most {format_quantity(largest, 'H')})",
+            option="--turns")

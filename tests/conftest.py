@@ -1,0 +1,10 @@
+"""Shared test settings: a Hypothesis profile sized for a two-core machine."""
+
+import os
+
+from hypothesis import HealthCheck, settings
+
+settings.register_profile("default", max_examples=60, deadline=None,
+                          suppress_health_check=[HealthCheck.too_slow])
+settings.register_profile("thorough", max_examples=2000, deadline=None)
+settings.load_profile(os.environ.get("COILPLAN_HYPOTHESIS", "default"))

@@ -1,0 +1,117 @@
+"""The inverse solver: round trips, whole-number choice, batch solves and infeasible targets."""
+
+import math
+
+import numpy as np
+import pytest
+from hypothesis import given
+from hypothesis import strategies as st
+
+from coilplan.errors import InfeasibleError
+from coilplan.forms import Solenoid
+from coilplan.solve import solve_turns
+from coilplan.wire import parse_wire
+
+
+class ClosedCore:
+    """L = AL·N², the closed-core law (IEC 60205 AL value): the solver's simplest form."""
+
+    def __init__(self, al, most=math.inf):
+        self.al, self.most = al, most
+
+    def inductance(self, turns):
+        return self.al * np.asarray(turns, dtype=float) ** 2
+
+    def min_turns(self):
+        return 1.0
+
+    def max_turns(self):
+        return self.most
+
+    def limit_reason(self, turns, lowest=False):
+        return "one turn" if lowest else f"{turns:.0f} turns fill the window"
+
+
+def test_closed_core_has_the_square_root_answer():
+    """For L = AL·N² the continuous answer is √(L/AL) (definition of AL, IEC 60205)."""
+    solution = solve_turns(ClosedCore(93.75e-9), 75e-6)
+    assert math.isclose(solution.turns_exact, math.sqrt(75e-6 / 93.75e-9), rel_tol=1e-12)
+    assert (solution.turns_below, solution.turns_above) == (28, 29)
+    assert solution.turns == 28  # 28² AL = 73.5 µH is closer to 75 µH than 29² AL = 78.8 µH
+    assert math.isclose(solution.inductance, 93.75e-9 * 28**2)
+
+
+def test_whole_number_target_is_exact():
+    """A target that is exactly a whole number of turns returns that number on both sides."""
+    solution = solve_turns(ClosedCore(1e-9), 1e-9 * 40**2)
+    assert solution.turns == solution.turns_below == solution.turns_above == 40
+
+
+def coil(**changes):
+    settings = {"diameter": 0.0255, "wire": parse_wire("0.5mm"), "method": "nagaoka-rosa"}
+    settings.update(changes)
+    return Solenoid(**settings)
+
+
+@given(turns=st.floats(min_value=1.0, max_value=5000.0),
+       spacing=st.floats(min_value=1.0, max_value=4.0))
+def test_round_trip_continuous(turns, spacing):
+    """Solving for the inductance of a forward-computed coil returns its turns (continuous)."""
+    form = coil(pitch=parse_wire("0.5mm").overall_diameter * spacing)
+    target = float(form.inductance(turns))
+    solution = solve_turns(form, target)
+    assert math.isclose(solution.turns_exact, turns, rel_tol=1e-9)
+    assert math.isclose(float(form.inductance(solution.turns_exact)), target, rel_tol=1e-9)
+
+
+@given(turns=st.integers(min_value=1, max_value=3000))
+def test_round_trip_whole_turns(turns):
+    """The inductance of a whole number of turns solves back to that whole number."""
+    form = coil()
+    solution = solve_turns(form, float(form.inductance(turns)))
+    assert solution.turns == turns
+
+
+@given(target=st.floats(min_value=1e-7, max_value=1e-2))
+def test_neighbours_bracket_the_target_and_the_closer_is_chosen(target):
+    """The whole numbers either side bracket the target; the recommended one is closer in L."""
+    solution = solve_turns(coil(), target)
+    assert solution.inductance_below <= target * (1 + 1e-12)
+    assert solution.inductance_above >= target * (1 - 1e-12)
+    closer = min(abs(solution.inductance_below - target), abs(solution.inductance_above - target))
+    assert abs(solution.inductance - target) == closer
+
+
+def test_batch_matches_one_by_one():
+    """An array of targets solves in one call to the same answers as single solves."""
+    form = coil()
+    targets = np.logspace(-6, -3, 50)
+    batch = solve_turns(form, targets)
+    for index in (0, 17, 49):
+        single = solve_turns(form, targets[index])
+        assert math.isclose(batch.turns_exact[index], single.turns_exact, rel_tol=1e-10)
+        assert batch.turns[index] == single.turns
+
+
+def test_target_above_what_fits_names_the_limit():
+    """A target beyond the usable former length is infeasible and says what does fit."""
+    form = coil(max_length=0.03)
+    with pytest.raises(InfeasibleError) as caught:
+        solve_turns(form, 1e-3)
+    largest = float(form.inductance(math.floor(form.max_turns())))
+    assert caught.value.achievable[1] == pytest.approx(largest)
+    assert "usable length" in str(caught.value) and "above" in str(caught.value)
+
+
+def test_target_below_one_turn_is_infeasible():
+    """Less than one turn's inductance cannot be wound."""
+    with pytest.raises(InfeasibleError, match="single turn"):
+        solve_turns(coil(), 1e-9)
+
+
+def test_fixed_length_spreads_turns():
+    """With a fixed winding length the pitch is length/N and the answer fits the length."""
+    form = coil(length=0.04)
+    solution = solve_turns(form, 20e-6)
+    assert float(form.pitch_at(solution.turns)) * solution.turns == pytest.approx(0.04)
+    assert solution.turns <= form.max_turns()
