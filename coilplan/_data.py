@@ -107,7 +107,8 @@ def parse_table(text: str, file_name: str, row_model: type[Row]) -> tuple[Row, .
         if len(cells) != len(header):
             raise DataFileError(file_name, number, "(row)",
                                 f"{len(cells)} cells, but the header has {len(header)}")
-        record = {name: (cell if cell != "" else None) for name, cell in zip(header, cells)}
+        record = {name: (cell if cell != "" else None)
+                  for name, cell in zip(header, cells, strict=True)}
         try:
             rows.append(row_model.model_validate(record))
         except pydantic.ValidationError as error:

@@ -525,7 +525,8 @@ class Wire(BaseModel):
     def _diameters_in_order(self):
         if self.overall_diameter < self.diameter:
             raise ValueError("overall_diameter must be at least the bare diameter")
-        if self.max_overall_diameter is not None and self.max_overall_diameter < self.overall_diameter:
+        largest = self.max_overall_diameter
+        if largest is not None and largest < self.overall_diameter:
             raise ValueError("max_overall_diameter must be at least overall_diameter")
         return self
 
@@ -606,12 +607,10 @@ def _from_gauge(series: str, gauge_text: str, grade: str, overall: float | None,
 
 def _checked_wire(label: str, series: str, diameter: float, grade: str,
                   overall: float | None) -> Wire:
-    if overall is not None:
-        if not (math.isfinite(overall) and overall >= diameter):
-            bare = _mm_label(diameter)
-            raise InvalidInputError("--overall", "a measured overall diameter no smaller than "
-                                    f"the bare diameter {bare}", _mm_label(overall)
-                                    if math.isfinite(overall) else overall)
+    if overall is not None and not (math.isfinite(overall) and overall >= diameter):
+        shown = _mm_label(overall) if math.isfinite(overall) else overall
+        raise InvalidInputError("--overall", "a measured overall diameter no smaller than "
+                                f"the bare diameter {_mm_label(diameter)}", shown)
     return _make_wire(label, series, diameter, grade, overall)
 
 
@@ -788,8 +787,10 @@ def parse_current_density(text, option: str = "--density") -> float:
 
     Examples
     --------
-    >>> parse_current_density("3"), parse_current_density("2.5 A/mm²"), parse_current_density("300A/cm2")
-    (3.0, 2.5, 3.0)
+    >>> parse_current_density("3"), parse_current_density("2.5 A/mm²")
+    (3.0, 2.5)
+    >>> parse_current_density("300A/cm2")
+    3.0
     """
     expected = "a current density in A/mm² such as 3 or 3A/mm2"
     stripped = str(text).strip()

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import csv
 import io
+import itertools
 import json
 import math
 from pathlib import Path
@@ -242,7 +243,7 @@ def test_enamel_interpolation_lies_between_neighbouring_rows(grade, kind):
     """Between two rows of the table, the overall diameter lies between theirs."""
     points = _enamel_column(grade, kind)
     assert len(points) > 20
-    for (d0, od0), (d1, od1) in zip(points, points[1:]):
+    for (d0, od0), (d1, od1) in itertools.pairwise(points):
         for fraction in (0.25, 0.5, 0.75):
             d = d0 * (d1 / d0) ** fraction
             build = enamel_build(d * 1e-3, grade)
@@ -259,7 +260,7 @@ def test_enamel_ordering_over_the_whole_range():
         assert np.all(build.minimum_overall <= build.typical_overall)
         assert np.all(build.typical_overall <= build.maximum_overall)
         assert np.all(np.diff(build.typical_overall) > 0)
-    for thinner, thicker in zip(builds, builds[1:]):
+    for thinner, thicker in itertools.pairwise(builds):
         assert np.all(thicker.typical_overall > thinner.typical_overall)
         assert np.all(thicker.maximum_overall > thinner.maximum_overall)
         assert np.all(thicker.minimum_overall > thinner.minimum_overall)
@@ -318,7 +319,7 @@ def test_swg_table_complete_and_monotonic():
     names = [row["gauge"] for row in csv_rows("swg.csv")]
     assert names == [f"{k}/0" for k in range(7, 0, -1)] + [str(n) for n in range(1, 51)]
     diameters = [swg_diameter(name) for name in names]
-    assert all(a > b for a, b in zip(diameters, diameters[1:]))
+    assert all(a > b for a, b in itertools.pairwise(diameters))
 
 
 @pytest.mark.parametrize(("text", "name"), [("0", "1/0"), ("00", "2/0"), ("0000000", "7/0"),
@@ -339,7 +340,7 @@ def test_metric_series_follows_iso3_preferred_numbers():
     values = [float(row["nominal_diameter_mm"]) for row in rows]
     assert values == sorted(values) and len(set(values)) == len(values)
     assert values[0] == 0.050 and values[-1] == 2.500
-    for row, value in zip(rows, values):
+    for row, value in zip(rows, values, strict=True):
         steps = 20 if row["renard"] == "R20" else 40
         k = round(steps * math.log10(value))
         assert value == pytest.approx(10 ** (k / steps), rel=0.013)

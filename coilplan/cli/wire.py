@@ -146,7 +146,7 @@ def _listing_lines(series: str, wires: list[Wire], results: list[dict], temperat
         header.append(f"per m at {temperature:g} °C")
     header.append(f"current at {density:g} A/mm²")
     rows = [header]
-    for wire, result in zip(wires, results):
+    for wire, result in zip(wires, results, strict=True):
         row = [wire.label, _mm(wire.diameter)]
         for grade in ("1", "2", "3"):
             mark = _EXTRAPOLATED_MARK if wire.with_grade(grade).enamel_extrapolated else ""
@@ -156,7 +156,7 @@ def _listing_lines(series: str, wires: list[Wire], results: list[dict], temperat
             row.append(format_quantity(result["resistance_at_temperature_ohm_per_m"], "ohm"))
         row.append(format_quantity(result["current_A"], "A", 3))
         rows.append(row)
-    return [_SERIES_TITLES[series]] + aligned_rows(rows)
+    return [_SERIES_TITLES[series], *aligned_rows(rows)]
 
 
 @click.command("wire")

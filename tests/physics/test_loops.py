@@ -170,12 +170,17 @@ def test_maxwell_matches_textbook_form_in_mpmath(geometry):
     """The stable Landen/Carlson form equals the textbook form at 40 digits to 1e-13.
 
     Reference: Maxwell 1873 art. 701 / Rosa & Grover 1912 formulas (1), (2), in
-    mpmath at mp.dps = 40 (mpmath's ellipk/ellipe take m = k^2). The bound: about
+    mpmath (its ellipk/ellipe take m = k^2) at 40 digits beyond those the
+    textbook form loses: about -log10(1 - k^2) for close circles (m = k^2 itself
+    must resolve 1 - k^2) and -log10(k^2) for distant ones. The bound: about
     twenty roundings and scipy's elliprd (a few ulp); the worst seen over 3000
     random geometries was 1.0e-15, so 1e-13 leaves a margin of 100.
     """
     a, b, z = geometry
-    with mpmath.workdps(40):
+    k_squared = 4 * a * b / ((a + b) ** 2 + z**2)
+    k_prime_squared = (math.hypot(a - b, z) / math.hypot(a + b, z)) ** 2
+    lost = max(0.0, -math.log10(k_squared), -math.log10(k_prime_squared))
+    with mpmath.workdps(40 + math.ceil(lost)):
         ref = maxwell_textbook(a, b, z)
         assert rel(coaxial_mutual_inductance(a, b, z), ref) < 1e-13
 
@@ -445,7 +450,7 @@ def test_solenoid_worked_example_against_rosa():
     our sum (thin-ring self terms) must be within 3e-4 of Rosa's value.
     """
     D, p, d, n = 0.05, 0.002, 0.001, 25
-    r, l = D / 2, n * p
+    r, length = D / 2, n * p
     with mpmath.workdps(30):
         # Rosa's ingredients; first anchor km to Grover's table (his p.150, via
         # Knight's "Table 7#1"): km(10) = 0.2664, km(50) = 0.3182 to 4 places.
@@ -453,7 +458,7 @@ def test_solenoid_worked_example_against_rosa():
         assert abs(float(rosa_km_mp(50)) - 0.3182) < 5e-5
 
         def rosa(mu0):
-            sheet = mu0 * mpmath.pi * r**2 * n**2 * nagaoka_coefficient_mp(D / l) / l
+            sheet = mu0 * mpmath.pi * r**2 * n**2 * nagaoka_coefficient_mp(D / length) / length
             return sheet - mu0 * r * n * (rosa_ks_mp(p, d) + rosa_km_mp(n))
 
         assert abs(float(rosa(MU0_REFERENCES)) * 1e6 - 21.101609) < 5.001e-7
@@ -481,10 +486,11 @@ def test_solenoid_long_coil_limit():
     bound = 1.2 * (ks + km_limit) * p / (math.pi * r)
     previous = 0.0
     for n in (20_000, 100_000):
-        l = n * p
-        ratio = solenoid_filament_inductance(D, p, d, n) / (mu_0 * n**2 * math.pi * r**2 / l)
+        length = n * p
+        long_coil = mu_0 * n**2 * math.pi * r**2 / length
+        ratio = solenoid_filament_inductance(D, p, d, n) / long_coil
         with mpmath.workdps(20):
-            nagaoka = float(nagaoka_coefficient_mp(D / l))
+            nagaoka = float(nagaoka_coefficient_mp(D / length))
         assert abs(ratio - nagaoka) < bound
         assert previous < ratio < 1
         previous = ratio
