@@ -59,6 +59,7 @@ _EXAMPLES: dict[str, str] = {
 }
 
 _PREFIXES: dict[str, Decimal] = {
+    "f": Decimal("1e-15"),
     "p": Decimal("1e-12"),
     "n": Decimal("1e-9"),
     "u": Decimal("1e-6"),
@@ -301,7 +302,8 @@ def format_length(value: float, digits: int = 4) -> str:
     if not math.isfinite(value):
         return "n/a"
     if abs(value) >= 1:
-        return format_quantity(value, "m", digits)
+        decimals = max(digits - 1 - int(math.floor(math.log10(abs(value)))), 0)
+        return f"{value:.{decimals}f} m"
     mm = value * 1e3
     if mm == 0:
         return "0 mm"

@@ -6,17 +6,17 @@ self-inductances and the mutual inductances of every pair of turns. This
 module holds that engine. All functions are pure, take SI values (metres)
 and return henry; they broadcast over their arguments and pass NaN through.
 
-==================  ===================  =====================================
-symbol              parameter            meaning
-==================  ===================  =====================================
-:math:`a`, :math:`b`  ``radius_a``, ``radius_b``  radii of two coaxial circles
-:math:`z`           ``separation``       axial distance between their planes
-:math:`R`           ``loop_radius``      radius of a loop to the wire centre
-:math:`\rho`        ``wire_radius``      radius of the round wire
-:math:`p`           ``pitch``            axial distance between turns
-:math:`N`           ``turns``            number of turns
-:math:`m`           (internal)           elliptic parameter, :math:`m = k^2`
-==================  ===================  =====================================
+========================  ==============================  ====================================
+symbol                    parameter                       meaning
+========================  ==============================  ====================================
+:math:`a`, :math:`b`      ``radius_a``, ``radius_b``      radii of two coaxial circles
+:math:`z`                 ``separation``                  axial distance between their planes
+:math:`R`                 ``loop_radius``                 radius of a loop to the wire centre
+:math:`\rho`              ``wire_radius``                 radius of the round wire
+:math:`p`                 ``pitch``                       axial distance between turns
+:math:`N`                 ``turns``                       number of turns
+:math:`m`                 (internal)                      elliptic parameter, :math:`m = k^2`
+========================  ==============================  ====================================
 
 Convention: the complete elliptic integrals :math:`K(m)` and :math:`E(m)`
 take the *parameter* :math:`m = k^2`, as ``scipy.special.ellipk`` and
@@ -44,10 +44,10 @@ __all__ = [
 ]
 
 #: Largest wire_radius / loop_radius for which the thin-ring formula is used
-#: without a warning. Our choice: there the neglected O((a/R)^2) terms are a
-#: few parts in a thousand of the logarithm (the formula and the GMD method
-#: differ by about 1e-3 at this ratio).
-THIN_RING_LIMIT = 0.2
+#: without a warning. Our choice, not a published limit: the thin-ring formula
+#: and the GMD method, both in error by O(ratio^2), differ by 0.19 % at a
+#: ratio of 0.1 and by 0.84 % at 0.2.
+_THIN_RING_LIMIT = 0.2
 
 #: Default bound on the size of one temporary array in the pair sums.
 _DEFAULT_BLOCK_BYTES = 16 * 2**20
@@ -56,8 +56,8 @@ _DEFAULT_BLOCK_BYTES = 16 * 2**20
 #: inside a block (and its index arrays) small.
 _MAX_BLOCK_ROWS = 512
 
-#: ln of the geometric mean distance of a round wire's cross-section from
-#: itself, relative to its radius: GMD = rho * exp(-1/4) (Maxwell; Grover 1946).
+#: Geometric mean distance of a round wire's cross-section from itself, per
+#: unit wire radius: GMD = rho * exp(-1/4) (Maxwell 1873; Grover 1946).
 _GMD_FACTOR = np.exp(-0.25)
 
 
@@ -106,14 +106,14 @@ def _thin_ring(R, rho, high_frequency=False):
 
 
 def _warn_thick_wire(R, rho, where):
-    """Warn (OutsideValidityWarning) when rho/R exceeds THIN_RING_LIMIT anywhere."""
+    """Warn (OutsideValidityWarning) when rho/R exceeds _THIN_RING_LIMIT anywhere."""
     with np.errstate(divide="ignore", invalid="ignore"):
         ratio = np.abs(np.asarray(rho, dtype=float) / np.asarray(R, dtype=float))
     worst = np.max(ratio, initial=0.0, where=np.isfinite(ratio))
-    if worst > THIN_RING_LIMIT:
+    if worst > _THIN_RING_LIMIT:
         msg = (
-            f"{where}: wire radius / loop radius must stay below {THIN_RING_LIMIT} for the "
-            f"thin-ring formula (error of order (a/R)**2); got up to {worst:.3g}"
+            f"{where}: wire radius / loop radius must stay below {_THIN_RING_LIMIT} for the "
+            f"thin-ring formula, whose error grows as that ratio squared; got up to {worst:.3g}"
             + ("; NaN where the wire radius reaches the loop radius" if worst >= 1 else "")
         )
         warnings.warn(msg, OutsideValidityWarning, stacklevel=3)
@@ -173,13 +173,15 @@ def coaxial_mutual_inductance(radius_a, radius_b, separation):
     and for distant ones (:math:`k \to 0`). The form used here has no
     subtraction: :math:`k_1` and :math:`1 - k_1^2` are products of ratios,
     and :math:`K(m) - E(m) = (m/3) R_D(0, 1 - m, 1)` [DLMF19]_ is evaluated
-    by ``scipy.special.elliprd``. Against mpmath at 40 digits the relative
-    error stays near 1e-15 from nearly touching circles (:math:`z = 10^{-6} a`,
-    :math:`a \approx b`) to :math:`z = 100 a` and radius ratios of
-    :math:`10^{\pm 3}`. Elliptic parameter convention: :math:`m = k^2`.
-    The formula is exact for filaments; for round wires of uniform current it
-    also gives the mutual inductance of two rings whose centres are the
-    filaments, to order (wire radius / distance)^2.
+    by ``scipy.special.elliprd``. Against the textbook form in mpmath at 40
+    or more significant digits, the relative error stayed below 1.1e-15 over
+    6000 geometries drawn from radii of 0.1 mm to 10 m, radius ratios of
+    :math:`10^{\pm 3}` and separations from nearly touching
+    (:math:`z = 10^{-7} a`, :math:`a \approx b`) to :math:`z = 100 a`.
+    Elliptic parameter convention: :math:`m = k^2`. The formula is exact for
+    filaments. For round wires with uniform current it is applied at the wire
+    centres, since the geometric mean distance of two circular wire sections
+    is the distance of their centres [Grover1946]_.
 
     References
     ----------
@@ -190,6 +192,9 @@ def coaxial_mutual_inductance(radius_a, radius_b, separation):
        of Standards*, vol. 8, no. 1, pp. 1-237, 1912, formulas (1) and (2).
     .. [DLMF19] NIST Digital Library of Mathematical Functions, eq. 19.25.1
        (Carlson's :math:`R_D` for :math:`K - E`), https://dlmf.nist.gov/19.25.
+    .. [Grover1946] F. W. Grover, *Inductance Calculations: Working Formulas
+       and Tables*, Van Nostrand, New York, 1946 (Dover reprint 1962),
+       geometric mean distances.
 
     Examples
     --------
@@ -265,14 +270,15 @@ def loop_self_inductance(loop_radius, wire_radius, *, high_frequency=False):
     References
     ----------
     .. [Maxwell1873] J. C. Maxwell, *A Treatise on Electricity and Magnetism*,
-       vol. 2, Clarendon Press, Oxford, 1873, art. 701-706.
+       vol. 2, Clarendon Press, Oxford, 1873, art. 701 (coaxial circles, the
+       basis of the ring formula).
     .. [RosaGrover1912] E. B. Rosa and F. W. Grover, "Formulas and tables for
        the calculation of mutual and self-inductance", *Bulletin of the Bureau
        of Standards*, vol. 8, no. 1, pp. 1-237, 1912 (circular ring of round
        wire).
     .. [Grover1946] F. W. Grover, *Inductance Calculations: Working Formulas
        and Tables*, Van Nostrand, New York, 1946 (Dover reprint 1962),
-       chapter on circular rings.
+       circular ring of round wire.
 
     Examples
     --------
@@ -332,11 +338,11 @@ def loop_self_inductance_gmd(loop_radius, wire_radius):
     References
     ----------
     .. [Maxwell1873] J. C. Maxwell, *A Treatise on Electricity and Magnetism*,
-       vol. 2, Clarendon Press, Oxford, 1873, art. 691-693 (geometric mean
-       distance) and art. 701.
+       vol. 2, Clarendon Press, Oxford, 1873, art. 701 (coaxial circles) and
+       the method of geometric mean distances in the same volume.
     .. [Grover1946] F. W. Grover, *Inductance Calculations: Working Formulas
        and Tables*, Van Nostrand, New York, 1946 (Dover reprint 1962),
-       chapter on geometric mean distances.
+       geometric mean distances.
 
     Examples
     --------
@@ -399,9 +405,10 @@ def coaxial_filaments_inductance(radii, positions, wire_radius, *,
 
     Notes
     -----
-    Exact for filaments; for round wires it assumes uniform current in each
+    Exact for filaments. For round wires it assumes uniform current in each
     wire (low frequency) and takes each pair's mutual inductance at the wire
-    centres, exact to order (wire radius / spacing)^2. The pair sum uses the
+    centres (the geometric mean distance of two circular sections is the
+    distance of their centres). The pair sum uses the
     symmetry :math:`M_{ij} = M_{ji}` (only :math:`i < j`, doubled): about
     :math:`N^2/2` evaluations of Maxwell's formula, about 0.15 s for
     N = 1000 and 12 s for N = 10 000 on one core of the development machine
@@ -541,9 +548,9 @@ def solenoid_filament_inductance(diameter, pitch, wire_diameter, turns):
     current in the wire. The self term is the thin-ring formula
     (:func:`loop_self_inductance`, error of order :math:`(\rho/a)^2`). It
     agrees with Rosa's round-wire correction of Nagaoka's current sheet
-    to about 2e-4 for D = 50 mm, p = 2 mm, d = 1 mm, N = 25, within the
-    "few parts in 10 000" stated for that method [RosaGrover1912]_. Cost:
-    N - 1 evaluations of Maxwell's formula.
+    (the NBS method [RosaGrover1912]_) to 1.8e-4 for D = 50 mm, p = 2 mm,
+    d = 1 mm, N = 25, within the "few parts in 10 000" Knight states for that
+    method [Knight2010]_. Cost: N - 1 evaluations of Maxwell's formula.
 
     References
     ----------
@@ -555,7 +562,10 @@ def solenoid_filament_inductance(diameter, pitch, wire_diameter, turns):
        the corrections for round wire.
     .. [Grover1946] F. W. Grover, *Inductance Calculations: Working Formulas
        and Tables*, Van Nostrand, New York, 1946 (Dover reprint 1962),
-       chapter on single-layer coils.
+       single-layer coils.
+    .. [Knight2010] D. W. Knight, notes on Rosa's round-wire corrections and
+       Grover's table of km, 2010,
+       http://www.g3ynh.info/zdocs/magnetics/appendix/Rosa_Km.html.
 
     Examples
     --------
@@ -572,7 +582,8 @@ def solenoid_filament_inductance(diameter, pitch, wire_diameter, turns):
     rho = d / 2.0
     _warn_thick_wire(a, rho, "solenoid_filament_inductance")
     if N > 1 and np.any(np.abs(p) < d):
-        worst = np.nanmin(np.abs(p) / d)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            worst = np.nanmin(np.abs(p) / d)
         msg = (
             "solenoid_filament_inductance: pitch must be at least the wire diameter "
             f"(turns would overlap); got pitch/wire_diameter down to {worst:.3g}"
