@@ -276,15 +276,14 @@ def format_quantity(value: float, unit: str, digits: int = 4) -> str:
     if value == 0:
         return f"0 {symbol}"
     magnitude = abs(value)
-    for scale, prefix in _FORMAT_PREFIXES:
-        mantissa = magnitude / scale
-        # round first so that 999.96 shows as 1.000 k, not 1000 (no prefix change lost)
-        rounded = float(f"{mantissa:.{digits}g}")
-        if rounded >= 1 or scale == _FORMAT_PREFIXES[-1][0]:
-            if rounded >= 1000 and scale < 1e9:
-                continue
+    # the largest prefix that leaves a mantissa >= 1 after rounding to `digits`, so that
+    # 999.96 µ shows as 1.000 m rather than 1000 µ; below the smallest prefix, keep it
+    rounded, prefix = 0.0, _FORMAT_PREFIXES[-1][1]
+    for scale, symbol_prefix in _FORMAT_PREFIXES:
+        rounded, prefix = float(f"{magnitude / scale:.{digits}g}"), symbol_prefix
+        if rounded >= 1:
             break
-    decimals = max(digits - 1 - int(math.floor(math.log10(rounded))), 0) if rounded else 0
+    decimals = max(digits - 1 - math.floor(math.log10(rounded)), 0) if rounded else 0
     sign = "-" if value < 0 else ""
     return f"{sign}{rounded:.{decimals}f} {prefix}{symbol}"
 
@@ -302,10 +301,10 @@ def format_length(value: float, digits: int = 4) -> str:
     if not math.isfinite(value):
         return "n/a"
     if abs(value) >= 1:
-        decimals = max(digits - 1 - int(math.floor(math.log10(abs(value)))), 0)
+        decimals = max(digits - 1 - math.floor(math.log10(abs(value))), 0)
         return f"{value:.{decimals}f} m"
     mm = value * 1e3
     if mm == 0:
         return "0 mm"
-    decimals = max(digits - 1 - int(math.floor(math.log10(abs(mm)))), 0)
+    decimals = max(digits - 1 - math.floor(math.log10(abs(mm))), 0)
     return f"{mm:.{decimals}f} mm"

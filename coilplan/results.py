@@ -106,7 +106,7 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
         result["max_length_m"] = form.max_length
     limit = form.max_turns()
     if math.isfinite(limit):
-        result["max_turns"] = int(math.floor(limit + 1e-9))
+        result["max_turns"] = math.floor(limit + 1e-9)
         result["max_inductance_H"] = float(form.inductance(float(math.floor(limit + 1e-9))))
     return result
 
@@ -115,7 +115,7 @@ def _check_fits(form: Solenoid, turns: int) -> None:
     """Raise InfeasibleError when ``turns`` do not fit the former."""
     limit = form.max_turns()
     if turns > limit + 1e-9:
-        whole = int(math.floor(limit + 1e-9))
+        whole = math.floor(limit + 1e-9)
         largest = float(np.asarray(form.inductance(float(whole)))) if whole >= 1 else math.nan
         raise InfeasibleError(
             f"{turns} turns do not fit: {form.limit_reason(limit)} "
