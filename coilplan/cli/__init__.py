@@ -89,8 +89,7 @@ def _fail(message: str, code: int) -> int:
                                                     "max_content_width": 100})
 @click.version_option(package_name="coilplan", prog_name="coilplan")
 def main() -> None:
-    """Plan coil windings: inductance from turns, turns for a target, and the trim
-    of a coil you have measured.
+    """Plan coil windings: inductance from turns, and turns for a target inductance.
 
     Values take their units, as on a datasheet: 10uH, 220pF, 1.2MHz, 25mm, 1in, 20mil.
     Add --json to any command for machine-readable output (SI units, unit in the key).
