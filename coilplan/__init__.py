@@ -6,6 +6,8 @@ The library computes each coil form's inductance from published methods
 (``coilplan.solve``). The ``coilplan`` command is a thin layer over these.
 """
 
+from coilplan.calibrate import AlFit, fit_al
+from coilplan.choke import design_choke
 from coilplan.errors import (
     CoilplanError,
     DataFileError,
@@ -14,32 +16,47 @@ from coilplan.errors import (
     OutsideValidityWarning,
     SolverError,
 )
-from coilplan.forms import SOLENOID_METHODS, CoilForm, Solenoid
+from coilplan.forms import SOLENOID_METHODS, CoilForm, GappedCore, Solenoid, Toroid
+from coilplan.materials import Material, all_materials, material, materials_for_permeability
 from coilplan.quantities import format_length, format_quantity, parse_quantity
-from coilplan.results import solenoid_result
+from coilplan.results import gapped_result, solenoid_result, toroid_result
+from coilplan.saturation import SaturationCheck, saturation_check
 from coilplan.solve import TurnsSolution, solve_turns
 from coilplan.wire import Wire, awg_diameter, copper_resistivity, parse_wire
 
 __version__ = "0.1.0"
 
 __all__ = [
+    "AlFit",
     "CoilForm",
     "CoilplanError",
     "DataFileError",
+    "GappedCore",
     "InfeasibleError",
     "InvalidInputError",
+    "Material",
     "OutsideValidityWarning",
     "SOLENOID_METHODS",
+    "SaturationCheck",
     "Solenoid",
     "SolverError",
+    "Toroid",
     "TurnsSolution",
     "Wire",
+    "all_materials",
     "awg_diameter",
     "copper_resistivity",
+    "design_choke",
+    "fit_al",
     "format_length",
     "format_quantity",
+    "gapped_result",
+    "material",
+    "materials_for_permeability",
     "parse_quantity",
     "parse_wire",
+    "saturation_check",
     "solenoid_result",
     "solve_turns",
+    "toroid_result",
 ]

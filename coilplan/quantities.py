@@ -1,6 +1,6 @@
 """Engineering quantities as a bench user types them, and back.
 
-``parse_quantity("75uH", "H")`` reads one value in one expected unit and
+``parse_quantity("47uH", "H")`` reads one value in one expected unit and
 returns it in SI base units; :func:`format_quantity` renders an SI value with
 an SI prefix and the Greek micro sign. The parser is strict where a slip would
 silently change a value by orders of magnitude:
@@ -10,7 +10,7 @@ silently change a value by orders of magnitude:
 * a prefix alone is accepted for electrical units (``"10u"`` = 10 µH when an
   inductance is expected), never for lengths, where ``"m"`` is the metre;
 * ``u``, ``µ`` (micro sign) and ``μ`` (Greek mu) all mean micro; ``K`` is
-  accepted for kilo; the unit symbol itself is case-blind (``75uh``), the
+  accepted for kilo; the unit symbol itself is case-blind (``47uh``), the
   prefix is not (``m`` milli, ``M`` mega).
 
 Lengths also take inches (``in``, ``inch``, ``"``) and mils (``mil``, ``thou``).
@@ -29,6 +29,7 @@ __all__ = [
     "format_length",
     "format_quantity",
     "parse_count",
+    "parse_measurement",
     "parse_quantity",
     "parse_temperature",
 ]
@@ -39,6 +40,7 @@ UNIT_NAMES: dict[str, str] = {
     "F": "a capacitance",
     "Hz": "a frequency",
     "m": "a length",
+    "m2": "an area",
     "ohm": "a resistance",
     "A": "a current",
     "V": "a voltage",
@@ -48,9 +50,10 @@ UNIT_NAMES: dict[str, str] = {
 
 _EXAMPLES: dict[str, str] = {
     "H": "10uH",
-    "F": "220pF",
+    "F": "330pF",
     "Hz": "1.2MHz",
     "m": "25mm or 1in",
+    "m2": "50mm2 or 50mm²",
     "ohm": "0.5ohm",
     "A": "2A",
     "V": "12V",
@@ -129,6 +132,12 @@ def _suffix_scale(suffix: str, unit: str) -> Decimal | None:
     """Scale factor of ``suffix`` for ``unit``, or None if it does not fit."""
     if unit == "m":
         return _LENGTH_UNITS.get(suffix) or _LENGTH_UNITS.get(suffix.lower())
+    if unit == "m2":
+        for square in ("^2", "²", "2"):
+            if suffix.endswith(square) and suffix != square:
+                length = _suffix_scale(suffix[: -len(square)], "m")
+                return None if length is None else length * length
+        return None
     if suffix == "":
         return None
     spellings = _SYMBOLS[unit]
@@ -147,9 +156,9 @@ def parse_quantity(text: str, unit: str, option: str = "value", *,
     Parameters
     ----------
     text : str
-        What the user typed, e.g. ``"75uH"``, ``"75 µH"``, ``"0.5mm"``, ``"20mil"``.
+        What the user typed, e.g. ``"47uH"``, ``"47 µH"``, ``"0.5mm"``, ``"20mil"``.
     unit : str
-        The expected unit: one of ``H F Hz m ohm A V T H/t2``.
+        The expected unit: one of ``H F Hz m m2 ohm A V T H/t2``.
     option : str
         The option name, for the error message.
     allow_zero, allow_negative : bool
@@ -168,12 +177,14 @@ def parse_quantity(text: str, unit: str, option: str = "value", *,
 
     Examples
     --------
-    >>> parse_quantity("75uH", "H")
-    7.5e-05
+    >>> parse_quantity("47uH", "H")
+    4.7e-05
     >>> parse_quantity("1 in", "m")
     0.0254
     >>> parse_quantity("10u", "H")
     1e-05
+    >>> parse_quantity("50mm²", "m2")
+    5e-05
     """
     if unit not in UNIT_NAMES:
         raise ValueError(f"unit must be one of {sorted(UNIT_NAMES)}; got {unit!r}")
@@ -213,6 +224,31 @@ def parse_count(text: str, option: str = "value", *, minimum: int = 1) -> int:
     if value < minimum:
         raise InvalidInputError(option, f"a whole number of at least {minimum}", text)
     return value
+
+
+def parse_measurement(text: str, option: str = "--measured") -> tuple[float, int]:
+    """Read a measured point ``L@N``: an inductance read on the meter at a whole number of turns.
+
+    Returns
+    -------
+    tuple
+        (inductance in H, turns).
+
+    Examples
+    --------
+    >>> parse_measurement("120uH@36")
+    (0.00012, 36)
+    """
+    expected = "a measurement inductance@turns such as 120uH@36"
+    parts = str(text).split("@")
+    if len(parts) != 2:
+        raise InvalidInputError(option, expected, text)
+    try:
+        inductance = parse_quantity(parts[0], "H", option)
+        turns = parse_count(parts[1], option)
+    except InvalidInputError as error:
+        raise InvalidInputError(option, f"{expected} ({error.expected})", text) from None
+    return inductance, turns
 
 
 def parse_temperature(text: str, option: str = "--temperature") -> float:

@@ -17,14 +17,14 @@ from coilplan.quantities import (
 
 # SI prefixes (BIPM SI Brochure, 9th ed., Table 7) and inch = 25.4 mm exactly (1959 agreement).
 GOOD = [
-    ("75uH", "H", 75e-6),
-    ("75 µH", "H", 75e-6),  # micro sign U+00B5
-    ("75 μH", "H", 75e-6),  # Greek mu U+03BC
-    ("75uh", "H", 75e-6),
+    ("47uH", "H", 47e-6),
+    ("47 µH", "H", 47e-6),  # micro sign U+00B5
+    ("47 μH", "H", 47e-6),  # Greek mu U+03BC
+    ("47uh", "H", 47e-6),
     ("4.7u", "H", 4.7e-6),
     ("2.2mH", "H", 2.2e-3),
     ("1.5H", "H", 1.5),
-    ("220pF", "F", 220e-12),
+    ("330pF", "F", 330e-12),
     ("0.1uF", "F", 1e-7),
     ("1.2MHz", "Hz", 1.2e6),
     ("455kHz", "Hz", 455e3),

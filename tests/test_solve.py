@@ -34,11 +34,11 @@ class ClosedCore:
 
 def test_closed_core_has_the_square_root_answer():
     """For L = AL·N² the continuous answer is √(L/AL) (definition of AL, IEC 60205)."""
-    solution = solve_turns(ClosedCore(93.75e-9), 75e-6)
-    assert math.isclose(solution.turns_exact, math.sqrt(75e-6 / 93.75e-9), rel_tol=1e-12)
-    assert (solution.turns_below, solution.turns_above) == (28, 29)
-    assert solution.turns == 28  # 28² AL = 73.5 µH is closer to 75 µH than 29² AL = 78.8 µH
-    assert math.isclose(solution.inductance, 93.75e-9 * 28**2)
+    solution = solve_turns(ClosedCore(62.5e-9), 33e-6)
+    assert math.isclose(solution.turns_exact, math.sqrt(33e-6 / 62.5e-9), rel_tol=1e-12)
+    assert (solution.turns_below, solution.turns_above) == (22, 23)
+    assert solution.turns == 23  # 23² AL = 33.06 µH is closer to 33 µH than 22² AL = 30.25 µH
+    assert math.isclose(solution.inductance, 62.5e-9 * 23**2)
 
 
 def test_whole_number_target_is_exact():

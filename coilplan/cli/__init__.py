@@ -9,6 +9,7 @@ and exit status 1, never a traceback.
 from __future__ import annotations
 
 import importlib
+import os
 import sys
 
 import click
@@ -19,7 +20,10 @@ __all__ = ["main"]
 
 # command name -> (module under coilplan.cli, function, one-line help)
 _COMMANDS: dict[str, tuple[str, str, str]] = {
+    "materials": ("materials", "materials", "Generic core material classes; which ones a measured permeability fits."),
     "solenoid": ("solenoid", "solenoid", "Single-layer air-core coil: inductance from turns, or turns for a target."),
+    "toroid": ("toroid", "toroid", "Ring core: AL (IEC 60205), turns, fit in the hole, saturation."),
+    "gapped": ("gapped", "gapped", "Gapped core (E, pot, drum): AL with fringing, turns or gap, saturation."),
     "wire": ("wire", "wire", "Wire gauges: bare and enamelled diameters, resistance, current."),
 }
 
@@ -62,6 +66,11 @@ class _CoilplanGroup(click.Group):
             code = _fail("aborted", 1)
         except BrokenPipeError:  # output piped into `head`: not an error of ours
             code = 0
+        except Exception as error:  # a defect of ours: still one line, never a traceback
+            if os.environ.get("COILPLAN_DEBUG"):
+                raise
+            code = _fail(f"internal error ({type(error).__name__}: {error}); please report it with "
+                         "the command line that caused it (COILPLAN_DEBUG=1 shows the traceback)", 1)
         code = code if isinstance(code, int) else 0
         if standalone_mode:
             sys.exit(code)
@@ -91,6 +100,6 @@ def _fail(message: str, code: int) -> int:
 def main() -> None:
     """Plan coil windings: inductance from turns, and turns for a target inductance.
 
-    Values take their units, as on a datasheet: 10uH, 220pF, 1.2MHz, 25mm, 1in, 20mil.
+    Values take their units, as on a datasheet: 10uH, 330pF, 1.2MHz, 25mm, 1in, 20mil.
     Add --json to any command for machine-readable output (SI units, unit in the key).
     """

@@ -24,7 +24,7 @@ class QuantityType(click.ParamType):
     def __init__(self, unit: str, *, allow_zero: bool = False):
         self.unit = unit
         self.allow_zero = allow_zero
-        self.name = {"H": "inductance", "F": "capacitance", "Hz": "frequency", "m": "length",
+        self.name = {"H": "inductance", "F": "capacitance", "Hz": "frequency", "m": "length", "m2": "area",
                      "ohm": "resistance", "A": "current", "V": "voltage", "T": "flux density",
                      "H/t2": "AL"}.get(unit, unit)
 

@@ -17,7 +17,7 @@ __all__ = ["solenoid"]
 LENGTH = QuantityType("m")
 
 
-def _one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
+def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
     (name_a, value_a), (name_b, value_b) = first, second
     if value_a is None and value_b is None:
         raise InvalidInputError(name_a, f"one of {name_a} or {name_b}", None)
@@ -53,8 +53,8 @@ def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, 
     number of turns to wind, with the inductance of the whole numbers either side.
     The coil diameter is to the wire centres: former + overall wire diameter.
     """
-    _one_of(("--turns", turns), ("--target", target))
-    _one_of(("--former", former), ("--diameter", diameter))
+    one_of(("--turns", turns), ("--target", target))
+    one_of(("--former", former), ("--diameter", diameter))
     wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
     coil_diameter = diameter if diameter is not None else former + wire.overall_diameter
     with captured_warnings() as warnings_:

@@ -10,6 +10,7 @@ import warnings
 
 import click
 
+from coilplan.cautions import hot_winding_cautions
 from coilplan.cli._types import QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_length, format_quantity
@@ -27,10 +28,6 @@ __all__ = ["wire"]
 
 # A/mm²: a figure in common use for small, air-cooled coils (common practice, no source).
 _DEFAULT_DENSITY = 3.0
-# Above this density the output cautions about a hot winding (common practice, no source).
-_HOT_DENSITY = 5.0
-# At or above this conductor temperature (°C) the output cautions about a hot winding.
-_HOT_TEMPERATURE_C = 100.0
 
 _SERIES_TITLES = {
     "awg": "AWG, bare diameters by the ASTM B258 formula",
@@ -94,14 +91,7 @@ def _wire_result(wire: Wire, temperature: float, density: float) -> dict:
 
 
 def _cautions(temperature: float, density: float) -> list[str]:
-    cautions = []
-    if density > _HOT_DENSITY:
-        cautions.append(f"at {density:g} A/mm² a wound coil runs hot: check the enamel's "
-                        "thermal class and keep it clear of anything that burns")
-    if temperature >= _HOT_TEMPERATURE_C:
-        cautions.append(f"a winding at {temperature:g} °C burns skin and ages its enamel: check "
-                        "the thermal class printed on the reel")
-    return cautions
+    return hot_winding_cautions(current_density=density, temperature_C=temperature)
 
 
 def _mm(value: float | None) -> str:

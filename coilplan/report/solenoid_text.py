@@ -4,12 +4,9 @@ from __future__ import annotations
 
 from coilplan.quantities import format_length, format_quantity
 from coilplan.report.text import aligned_rows
+from coilplan.report.turns_rows import henry, turns_rows
 
 __all__ = ["solenoid_lines"]
-
-
-def _henry(value: float) -> str:
-    return format_quantity(value, "H", 4)
 
 
 def solenoid_lines(result: dict) -> list[str]:
@@ -27,23 +24,15 @@ def solenoid_lines(result: dict) -> list[str]:
     >>> lines[0]
     'Single-layer air-core coil, 3 turns'
     """
-    rows: list[tuple[str, ...]] = []
     turns = result["turns"]
     if "target_H" in result:
-        title = f"Single-layer air-core coil for {_henry(result['target_H'])}"
-        below, above = result["turns_below"], result["turns_above"]
-        rows.append(("wind", f"{turns} turns", f"gives {_henry(result['inductance_H'])}"))
-        rows.append(("exact solution", f"{result['turns_exact']:.3f} turns"))
-        if below != above:
-            rows.append(("whole turns either side",
-                         f"{below} turns: {_henry(result['inductance_below_H'])}",
-                         f"{above} turns: {_henry(result['inductance_above_H'])}"))
+        title = f"Single-layer air-core coil for {henry(result['target_H'])}"
     else:
         title = f"Single-layer air-core coil, {turns} turns"
-        rows.append(("inductance", _henry(result["inductance_H"])))
+    rows = turns_rows(result)
     if "max_turns" in result:
         rows.append(("most that fit", f"{result['max_turns']} turns",
-                     f"up to {_henry(result['max_inductance_H'])}"))
+                     f"up to {henry(result['max_inductance_H'])}"))
     if "max_length_m" in result:
         rows.append(("former length", f"{format_length(result['length_m'])} used",
                      f"of {format_length(result['max_length_m'])} usable"))

@@ -1,22 +1,12 @@
-"""Whole answers for one coil: the solve plus every figure a bench user needs, in SI.
-
-A result is a plain dict with SI values and the unit in the key
-(``inductance_H``, ``length_m``), ready for ``--json`` and for the text report.
-Building it here keeps the command line thin and lets scripts get the same
-answer as the command.
-"""
+"""The whole answer for a single-layer solenoid."""
 
 from __future__ import annotations
 
 import math
 
-import numpy as np
-
-from coilplan.errors import InfeasibleError
 from coilplan.forms import SOLENOID_METHODS, Solenoid
 from coilplan.physics.solenoid import nagaoka_coefficient
-from coilplan.quantities import format_quantity
-from coilplan.solve import solve_turns
+from coilplan.results._common import turns_block
 
 __all__ = ["solenoid_result"]
 
@@ -56,23 +46,8 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
     """
     if (turns is None) == (target is None):
         raise ValueError("give exactly one of turns and target")
-    result: dict = {}
-    if target is not None:
-        solution = solve_turns(form, target)
-        chosen = int(solution.turns)
-        result.update(
-            target_H=float(target),
-            turns=chosen,
-            turns_exact=float(solution.turns_exact),
-            turns_below=int(solution.turns_below),
-            turns_above=int(solution.turns_above),
-            inductance_below_H=float(solution.inductance_below),
-            inductance_above_H=float(solution.inductance_above),
-        )
-    else:
-        chosen = int(turns)
-        _check_fits(form, chosen)
-        result["turns"] = chosen
+    result = turns_block(form, turns=turns, target=target)
+    chosen = result["turns"]
     form.validity_warnings(chosen)
     sheet = float(form.sheet_length(chosen))
     pitch = float(form.pitch_at(chosen))
@@ -109,15 +84,3 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
         result["max_turns"] = math.floor(limit + 1e-9)
         result["max_inductance_H"] = float(form.inductance(float(math.floor(limit + 1e-9))))
     return result
-
-
-def _check_fits(form: Solenoid, turns: int) -> None:
-    """Raise InfeasibleError when ``turns`` do not fit the former."""
-    limit = form.max_turns()
-    if turns > limit + 1e-9:
-        whole = math.floor(limit + 1e-9)
-        largest = float(np.asarray(form.inductance(float(whole)))) if whole >= 1 else math.nan
-        raise InfeasibleError(
-            f"{turns} turns do not fit: {form.limit_reason(limit)} "
-            f"(at most {format_quantity(largest, 'H')})",
-            option="--turns")

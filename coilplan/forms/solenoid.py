@@ -1,35 +1,21 @@
-"""Coil forms: one class per kind of coil, each answering the form protocol.
-
-The protocol (design.md) is what lets one solver serve every form. A form
-answers, vectorised over turns N (float arrays allowed for root finding):
-
-``inductance(N)``     low-frequency inductance, H
-``min_turns()``       fewest turns the form allows (1 for a winding)
-``max_turns()``       most turns that fit (``math.inf`` when nothing limits it)
-``limit_reason(N)``   the limit in words, for infeasible requests
-``wire_length(N)``    wire to cut, m, leads included
-``resistance(N)``     DC resistance at a temperature, ohm
-
-Forms check their inputs and raise :class:`~coilplan.errors.InvalidInputError`
-naming the command-line option, so the command line and the library give the
-same message.
-"""
+"""The single-layer air-core solenoid form."""
 
 from __future__ import annotations
 
 import math
 import warnings
 from dataclasses import dataclass
-from typing import Literal, Protocol, get_args
+from typing import Literal, get_args
 
 import numpy as np
 
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
+from coilplan.forms._checks import positive as _positive
 from coilplan.physics import loops, solenoid
 from coilplan.quantities import format_length
 from coilplan.wire import Wire
 
-__all__ = ["SOLENOID_METHODS", "CoilForm", "Solenoid", "SolenoidMethod"]
+__all__ = ["SOLENOID_METHODS", "Solenoid", "SolenoidMethod"]
 
 SolenoidMethod = Literal["nagaoka-rosa", "filament", "sheet", "lundin", "wheeler-1982",
                          "wheeler-1928"]
@@ -50,27 +36,6 @@ SOLENOID_METHODS: dict[str, tuple[str, str]] = {
     "wheeler-1928": ("Wheeler 1928 approximation of the current sheet, no round-wire corrections",
                      "about 1 % for a winding longer than 0.8 × radius (Wheeler)"),
 }
-
-
-class CoilForm(Protocol):
-    """What the solver and the reports need of any coil form."""
-
-    def inductance(self, turns): ...
-
-    def min_turns(self) -> float: ...
-
-    def max_turns(self) -> float: ...
-
-    def limit_reason(self, turns: float, lowest: bool = False) -> str: ...
-
-    def wire_length(self, turns): ...
-
-    def resistance(self, turns, temperature_C: float = 20.0): ...
-
-
-def _positive(value: float | None, option: str, what: str) -> None:
-    if value is not None and not (math.isfinite(value) and value > 0):
-        raise InvalidInputError(option, f"{what} above zero", value)
 
 
 @dataclass(frozen=True)

@@ -1,0 +1,89 @@
+"""``coilplan gapped``: a gapped core (E, pot, drum and bobbin): turns, gap, or both for a choke."""
+
+from __future__ import annotations
+
+import click
+
+from coilplan.choke import design_choke
+from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli._types import QuantityType
+from coilplan.errors import InvalidInputError
+from coilplan.forms import GappedCore
+from coilplan.report.cored_text import gapped_lines
+from coilplan.results.cored import cored_cautions, gapped_result
+from coilplan.saturation import NEAR_SATURATION
+from coilplan.wire import parse_wire
+
+__all__ = ["gapped"]
+
+
+@click.command()
+@click.option("--ae", type=QuantityType("m2"), required=True, help="Effective area of the core, e.g. 50mm2.")
+@click.option("--le", type=LENGTH, required=True, help="Effective magnetic path length, e.g. 45mm.")
+@click.option("--gap", type=QuantityType("m", allow_zero=True),
+              help="Total air gap in the path; leave out to have it computed.")
+@click.option("--window-width", type=LENGTH, help="Winding width along the leg (bobbin length).")
+@click.option("--window-depth", type=LENGTH, help="Radial depth of the winding space.")
+@click.option("--no-fringing", is_flag=True, help="Leave out McLyman's fringing correction.")
+@click.option("--max-flux", type=QuantityType("T"),
+              help=f"Design limit for the peak flux density; default {NEAR_SATURATION:.0%} of B_sat.")
+@core_options
+@json_option
+def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns, target, wire_text, grade,
+           overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
+           lead, as_json):
+    """Gapped core: AL = µ0·Ae/(gap + le/µr), with the fringing correction shown apart.
+
+    With --gap: --turns gives L, --target gives the turns. Without --gap: --turns and
+    --target give the gap; --target and --current give the turns and the gap of a choke
+    that carries the current without saturating (and fits the window if given).
+    """
+    core = resolve_core(mu=mu, material=material, al=al, measured=measured, bsat=bsat, temperature=temperature,
+                        allow_gap=True)
+    wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
+    drive = drive_arguments(current, ac_current, ac_voltage, frequency)
+    known_al = core.al_fit.al if core.al_fit is not None else core.al_given
+    if known_al is not None and gap is not None:
+        raise InvalidInputError("--gap", "either --gap (with --mu or --material) or a known AL, not both", None)
+    if known_al is None and core.mu_r is None:
+        raise InvalidInputError("--mu", "the core's permeability (--mu or --material), or --al / --measured", None)
+    mode = "given"
+    with captured_warnings() as warnings_:
+        template = GappedCore(ae=ae, le=le, wire=wire, gap=0.0 if known_al is None else None, mu_r=core.mu_r,
+                              al=known_al, window_width=window_width, window_depth=window_depth,
+                              fringing=not no_fringing, saturation_flux_density=core.saturation_flux_density,
+                              lead=lead)
+        if gap is not None or known_al is not None:
+            form = template if gap is None else GappedCore(**{**template.__dict__, "gap": gap})
+            if turns is None and target is None:
+                raise InvalidInputError("--turns", "--turns or --target", None)
+            if turns is not None and target is not None:
+                raise InvalidInputError("--turns", "either --turns or --target with a known gap, not both", None)
+            result = gapped_result(form, turns=turns, target=target, temperature_C=temperature, **drive)
+        elif turns is not None and target is not None:
+            mode = "gap for turns"
+            form = GappedCore(**{**template.__dict__, "gap": template.gap_for_al(target / turns**2)})
+            result = gapped_result(form, turns=turns, temperature_C=temperature, **drive)
+            result["asked_H"] = target
+        elif target is not None and (current or ac_current):
+            mode = "choke design"
+            if core.saturation_flux_density is None and max_flux is None:
+                raise InvalidInputError("--max-flux", "a flux-density limit: --max-flux, --bsat or --material", None)
+            limit = max_flux if max_flux is not None else NEAR_SATURATION * core.saturation_flux_density
+            form, chosen = design_choke(template, target, current + ac_current, limit)
+            result = gapped_result(form, turns=chosen, temperature_C=temperature, **drive)
+            result["asked_H"] = target
+            result["max_flux_density_T"] = limit
+        else:
+            raise InvalidInputError("--gap", "a gap, or --turns with --target (gives the gap), or --target with "
+                                    "--current (gives turns and gap)", None)
+    result["mode"] = mode
+    inputs = {"ae_m2": ae, "le_m": le, "gap_m": gap, "window_width_m": window_width,
+              "window_depth_m": window_depth, "fringing": not no_fringing, "max_flux_T": max_flux, "turns": turns,
+              "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material, "al_H": al,
+              "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
+              "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
+              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead}
+    emit(command="gapped", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
+         result=result, warnings_=warnings_, cautions=cored_cautions(result, temperature), render=gapped_lines)

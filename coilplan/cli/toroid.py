@@ -1,0 +1,58 @@
+"""``coilplan toroid``: a winding on a ring core, forward or inverse, with the saturation check."""
+
+from __future__ import annotations
+
+import click
+
+from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli.solenoid import one_of
+from coilplan.forms import Toroid
+from coilplan.report.cored_text import toroid_lines
+from coilplan.results.cored import cored_cautions, toroid_result
+from coilplan.wire import parse_wire
+
+__all__ = ["toroid"]
+
+
+@click.command()
+@click.option("--od", "outer", type=LENGTH, required=True, help="Outside diameter of the ring.")
+@click.option("--id", "inner", type=LENGTH, required=True, help="Inside diameter (the hole).")
+@click.option("--height", type=LENGTH, required=True, help="Height (thickness) of the ring.")
+@click.option("--layers", type=click.Choice(["one", "many"]), default="one", show_default=True,
+              help="One layer on the inside circumference, or layer on layer.")
+@core_options
+@json_option
+def toroid(outer, inner, height, layers, turns, target, wire_text, grade, overall, mu, material, al, measured,
+           bsat, current, ac_current, ac_voltage, frequency, temperature, lead, as_json):
+    """Ring core (toroid) of rectangular section: AL by IEC 60205, turns, fit and saturation.
+
+    The core is given by --mu, --material, a known --al, or readings --measured L@N on a
+    test winding, which also tell which generic material classes the core may be.
+    --mu 1 is an air-core toroid.
+    """
+    one_of(("--turns", turns), ("--target", target))
+    core = resolve_core(mu=mu, material=material, al=al, measured=measured, bsat=bsat, temperature=temperature)
+    wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
+    drive = drive_arguments(current, ac_current, ac_voltage, frequency)
+    with captured_warnings() as warnings_:
+        al_used = core.al_fit.al if core.al_fit is not None else core.al_given
+        form = Toroid(inner_diameter=inner, outer_diameter=outer, height=height, wire=wire, al=al_used,
+                      al_basis=core.basis, mu_r=core.mu_r if al_used is None else None,
+                      saturation_flux_density=core.saturation_flux_density,
+                      layers=layers, lead=lead)
+        result = toroid_result(form, turns=turns, target=target, temperature_C=temperature, **drive)
+        if core.al_fit is not None:
+            result["measured_residuals"] = list(core.al_fit.residuals)
+        if core.material_name is None and result["mu_r_implied"]:
+            from coilplan.materials import materials_for_permeability
+
+            matches = materials_for_permeability(result["mu_r"])
+            result["matching_materials"] = [match.material.name for match in matches]
+    inputs = {"od_m": outer, "id_m": inner, "height_m": height, "layers": layers, "turns": turns,
+              "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
+              "al_H": al, "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
+              "bsat_T": bsat, "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
+              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead}
+    emit(command="toroid", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
+         result=result, warnings_=warnings_, cautions=cored_cautions(result, temperature), render=toroid_lines)

@@ -1,0 +1,43 @@
+"""Coil forms: one class per kind of coil, each answering the form protocol.
+
+The protocol (design.md) is what lets one solver serve every form. A form
+answers, vectorised over turns N (float arrays allowed for root finding):
+
+``inductance(N)``     low-frequency inductance, H
+``min_turns()``       fewest turns the form allows (1 for a winding)
+``max_turns()``       most turns that fit (``math.inf`` when nothing limits it)
+``limit_reason(N)``   the limit in words, for infeasible requests
+``wire_length(N)``    wire to cut, m, leads included
+``resistance(N)``     DC resistance at a temperature, ohm
+
+Cored forms add ``flux_density(N, current)`` (T) for saturation checks.
+Forms check their inputs and raise :class:`~coilplan.errors.InvalidInputError`
+naming the command-line option, so the command line and the library give the
+same message.
+"""
+
+from __future__ import annotations
+
+from typing import Protocol
+
+from coilplan.forms.gapped import GappedCore
+from coilplan.forms.solenoid import SOLENOID_METHODS, Solenoid, SolenoidMethod
+from coilplan.forms.toroid import Toroid
+
+__all__ = ["SOLENOID_METHODS", "CoilForm", "GappedCore", "Solenoid", "SolenoidMethod", "Toroid"]
+
+
+class CoilForm(Protocol):
+    """What the solver and the reports need of any coil form."""
+
+    def inductance(self, turns): ...
+
+    def min_turns(self) -> float: ...
+
+    def max_turns(self) -> float: ...
+
+    def limit_reason(self, turns: float, lowest: bool = False) -> str: ...
+
+    def wire_length(self, turns): ...
+
+    def resistance(self, turns, temperature_C: float = 20.0): ...

@@ -1,0 +1,123 @@
+"""Text reports of cored answers: toroids and gapped cores (from :mod:`coilplan.results.cored`)."""
+
+from __future__ import annotations
+
+from coilplan.quantities import format_length, format_quantity
+from coilplan.report.text import aligned_rows
+from coilplan.report.turns_rows import henry, turns_rows
+
+__all__ = ["gapped_lines", "toroid_lines"]
+
+
+def _al(value: float) -> str:
+    return f"{format_quantity(value, 'H', 4)} per turn²"
+
+
+def _winding_rows(result: dict) -> list[tuple[str, ...]]:
+    wire = result["wire"]
+    grade = {"bare": "bare wire", "measured": "measured overall"}.get(
+        wire["grade"], f"grade {wire['grade']} enamel")
+    lead = result["lead_m"]
+    lead_note = (f"{result['turns']} turns + 2 × {format_length(lead)} leads" if lead > 0
+                 else f"{result['turns']} turns, no lead allowance (add --lead)")
+    rows = [
+        ("wire", wire["label"], f"{format_length(wire['overall_diameter_m'])} overall, {grade}"),
+        ("wire to cut", format_length(result["wire_length_m"]), lead_note),
+        ("DC resistance", format_quantity(result["dc_resistance_ohm"], "ohm", 3), "at 20 °C"),
+    ]
+    if result["temperature_C"] != 20.0:
+        rows.append(("", format_quantity(result["dc_resistance_at_temperature_ohm"], "ohm", 3),
+                     f"at {result['temperature_C']:g} °C"))
+    return rows
+
+
+def _drive_rows(result: dict) -> list[tuple[str, ...]]:
+    rows: list[tuple[str, ...]] = []
+    limit = result["saturation_flux_density_T"]
+    driven = result["current_A"] or result["ac_current_A"] or result.get("ac_voltage_V")
+    if driven:
+        parts = []
+        if result["current_A"]:
+            parts.append(f"{format_quantity(result['current_A'], 'A', 3)} DC")
+        if result["ac_current_A"]:
+            parts.append(f"{format_quantity(result['ac_current_A'], 'A', 3)} peak AC")
+        if result.get("ac_voltage_V"):
+            parts.append(f"{format_quantity(result['ac_voltage_V'], 'V', 3)} RMS at "
+                         f"{format_quantity(result['frequency_Hz'], 'Hz', 4)}")
+        rows.append(("peak flux density", format_quantity(result["flux_density_T"], "T", 3),
+                     " + ".join(parts)))
+        rows.append(("current density", f"{result['current_density_A_per_mm2']:.3g} A/mm²", "RMS in the copper"))
+    if limit:
+        rows.append(("saturates at", format_quantity(limit, "T", 3),
+                     f"at {result['temperature_C']:g} °C, typical for the material"))
+        if driven:
+            margin = result["saturation_margin"]
+            state = "below saturation" if margin > 0 else "PAST SATURATION"
+            rows.append(("margin", f"{margin:.0%}", state))
+        rows.append(("largest DC current", format_quantity(result["max_current_A"], "A", 3),
+                     "before saturation at these turns"))
+    elif driven:
+        rows.append(("saturates at", "unknown", "give --material or --bsat for the margin"))
+    return rows
+
+
+def toroid_lines(result: dict) -> list[str]:
+    """Lines of the toroid report: the answer, the core's IEC 60205 figures, winding and drive."""
+    title = (f"Toroid for {henry(result['target_H'])}" if "target_H" in result
+             else f"Toroid, {result['turns']} turns")
+    rows = turns_rows(result)
+    mu_note = "implied by the AL value" if result["mu_r_implied"] else ""
+    rows += [
+        ("AL value", _al(result["al_H"]), result["al_basis"]),
+        ("relative permeability", f"{result['mu_r']:.4g}", mu_note),
+        ("core", f"{format_length(result['outer_diameter_m'])} OD × {format_length(result['inner_diameter_m'])} ID"
+                 f" × {format_length(result['height_m'])} high"),
+        ("effective length le", format_length(result["le_m"]), "IEC 60205"),
+        ("effective area Ae", f"{result['ae_m2'] * 1e6:.4g} mm²", "IEC 60205"),
+        ("effective volume Ve", f"{result['ve_m3'] * 1e9:.4g} mm³", "IEC 60205"),
+        ("one layer holds", f"{result['turns_one_layer']} turns", "on the inside circumference"),
+    ]
+    if result["layers"] == "many":
+        rows.append(("window holds", f"{result['max_turns']} turns", "layer on layer to the centre (theoretical)"))
+    rows += _winding_rows(result) + _drive_rows(result)
+    if result.get("matching_materials"):
+        rows.append(("material classes", ", ".join(result["matching_materials"]),
+                     "consistent with the permeability (see coilplan materials)"))
+    return [title, "", *aligned_rows(rows)]
+
+
+def gapped_lines(result: dict) -> list[str]:
+    """Lines of the gapped-core report: the answer, AL with fringing shown apart, winding and drive."""
+    mode = result.get("mode", "given")
+    if mode == "choke design":
+        title = (f"Gapped choke for {henry(result['asked_H'])} at "
+                 f"{format_quantity(result['current_A'] + result['ac_current_A'], 'A', 3)} peak")
+        rows = [("wind", f"{result['turns']} turns", f"gives {henry(result['inductance_H'])}"),
+                ("gap", format_length(result["gap_m"]), "total in the magnetic path, computed"),
+                ("flux limit used", format_quantity(result["max_flux_density_T"], "T", 3),
+                 "the fewest turns that stay below it")]
+    elif mode == "gap for turns":
+        title = f"Gapped core: the gap for {henry(result['asked_H'])} at {result['turns']} turns"
+        rows = [("gap", format_length(result["gap_m"]), "total in the magnetic path, computed"),
+                ("inductance", henry(result["inductance_H"]))]
+    else:
+        title = (f"Gapped core for {henry(result['target_H'])}" if "target_H" in result
+                 else f"Gapped core, {result['turns']} turns")
+        rows = turns_rows(result)
+        if result["gap_m"] is not None:
+            rows.append(("gap", format_length(result["gap_m"]), "total in the magnetic path"))
+    rows.append(("AL value", _al(result["al_H"]),
+                 "with fringing" if result["fringing_factor"] != 1.0 else "no fringing correction"))
+    if result["fringing_factor"] != 1.0:
+        rows.append(("  without fringing", _al(result["al_no_fringing_H"]),
+                     f"McLyman factor {result['fringing_factor']:.3f} (about ±10 % on the correction)"))
+    rows += [
+        ("effective permeability", f"{result['effective_mu']:.4g}"),
+        ("core Ae, le", f"{result['ae_m2'] * 1e6:.4g} mm²", format_length(result["le_m"])),
+    ]
+    if result["turns_per_layer"] is not None:
+        rows.append(("turns per layer", f"{result['turns_per_layer']}"))
+    if result["max_turns"] is not None:
+        rows.append(("window holds", f"{result['max_turns']} turns", "layer winding"))
+    rows += _winding_rows(result) + _drive_rows(result)
+    return [title, "", *aligned_rows(rows)]

@@ -1,0 +1,44 @@
+"""Parts of an answer that every form shares: the turns (forward or solved) and the fit check."""
+
+from __future__ import annotations
+
+import math
+
+from coilplan.errors import InfeasibleError
+from coilplan.quantities import format_quantity
+from coilplan.solve import solve_turns
+
+__all__ = ["check_fits", "turns_block"]
+
+
+def turns_block(form, *, turns: int | None, target: float | None) -> dict:
+    """``turns`` checked against what fits, or solved for ``target``, as result fields.
+
+    Returns ``turns`` and, for an inverse, ``target_H``, ``turns_exact``,
+    ``turns_below``, ``turns_above``, ``inductance_below_H``, ``inductance_above_H``.
+    """
+    if (turns is None) == (target is None):
+        raise ValueError("give exactly one of turns and target")
+    if target is None:
+        check_fits(form, int(turns))
+        return {"turns": int(turns)}
+    solution = solve_turns(form, target)
+    return {
+        "target_H": float(target),
+        "turns": int(solution.turns),
+        "turns_exact": float(solution.turns_exact),
+        "turns_below": int(solution.turns_below),
+        "turns_above": int(solution.turns_above),
+        "inductance_below_H": float(solution.inductance_below),
+        "inductance_above_H": float(solution.inductance_above),
+    }
+
+
+def check_fits(form, turns: int) -> None:
+    """Raise InfeasibleError when ``turns`` do not fit the form."""
+    limit = form.max_turns()
+    if turns > limit + 1e-9:
+        whole = math.floor(limit + 1e-9)
+        largest = float(form.inductance(float(whole))) if whole >= 1 else math.nan
+        raise InfeasibleError(f"{turns} turns do not fit: {form.limit_reason(limit)} "
+                              f"(at most {format_quantity(largest, 'H')})", option="--turns")

@@ -1,0 +1,142 @@
+"""Whole answers for cored forms: toroids and gapped cores, with the saturation check."""
+
+from __future__ import annotations
+
+import math
+
+from scipy.constants import mu_0
+
+from coilplan.cautions import MAINS_VOLTAGE_V, hot_winding_cautions, mains_voltage_caution
+from coilplan.forms import GappedCore, Toroid
+from coilplan.results._common import turns_block
+from coilplan.saturation import saturation_check
+
+__all__ = ["cored_cautions", "drive_fields", "gapped_result", "toroid_result"]
+
+
+def drive_fields(form, turns: int, *, dc_current: float = 0.0, ac_current: float = 0.0,
+                 ac_voltage: float | None = None, frequency: float | None = None) -> dict:
+    """Flux density, saturation margin, largest current and current density, as result fields."""
+    check = saturation_check(form, turns, dc_current=dc_current, ac_current=ac_current,
+                             ac_voltage=ac_voltage, frequency=frequency)
+    area_mm2 = form.wire.area * 1e6
+    fields = {
+        "current_A": dc_current,
+        "ac_current_A": ac_current,
+        "flux_density_dc_T": check.flux_density_dc,
+        "flux_density_ac_T": check.flux_density_ac,
+        "flux_density_T": check.flux_density_peak,
+        "saturation_flux_density_T": check.saturation_flux_density,
+        "saturation_margin": check.margin,
+        "max_current_A": check.max_dc_current,
+        "near_saturation": check.near_saturation,
+        # RMS current over the copper: DC plus a sine of the given amplitude
+        "current_density_A_per_mm2": math.sqrt(dc_current**2 + ac_current**2 / 2) / area_mm2,
+    }
+    if ac_voltage is not None:
+        fields["ac_voltage_V"] = ac_voltage
+        fields["frequency_Hz"] = frequency
+    return fields
+
+
+def cored_cautions(result: dict, temperature_C: float) -> list[str]:
+    """The cautions a cored result calls for: hot winding, saturation, mains voltage."""
+    cautions = hot_winding_cautions(current_density=result.get("current_density_A_per_mm2", 0.0),
+                                    temperature_C=temperature_C,
+                                    near_saturation=bool(result.get("near_saturation")))
+    if (result.get("ac_voltage_V") or 0.0) >= MAINS_VOLTAGE_V:
+        cautions.append(mains_voltage_caution())
+    return cautions
+
+
+def _winding_fields(form, turns: int, temperature_C: float) -> dict:
+    return {
+        "inductance_H": float(form.inductance(turns)),
+        "wire_length_m": float(form.wire_length(turns)),
+        "lead_m": form.lead,
+        "dc_resistance_ohm": float(form.resistance(turns, 20.0)),
+        "temperature_C": float(temperature_C),
+        "dc_resistance_at_temperature_ohm": float(form.resistance(turns, temperature_C)),
+        "wire": {"label": form.wire.label, "diameter_m": form.wire.diameter,
+                 "overall_diameter_m": form.wire.overall_diameter, "grade": form.wire.grade},
+    }
+
+
+def toroid_result(form: Toroid, *, turns: int | None = None, target: float | None = None,
+                  temperature_C: float = 20.0, **drive) -> dict:
+    """Forward or inverse answer for a toroid, with IEC 60205 parameters and the saturation check.
+
+    Parameters
+    ----------
+    form : Toroid
+    turns, target : int or float
+        Exactly one: whole turns (forward) or a target inductance, H (inverse).
+    temperature_C : float
+        Working temperature for the second resistance figure, °C.
+    **drive
+        ``dc_current``, ``ac_current``, ``ac_voltage``, ``frequency`` for :func:`drive_fields`.
+
+    Returns
+    -------
+    dict
+        ``turns``, ``inductance_H``, ``al_H``, ``mu_r``, ``c1_per_m``, ``c2_per_m3``,
+        ``le_m``, ``ae_m2``, ``ve_m3``, ``turns_one_layer``, ``max_turns``,
+        ``wire_length_m``, ``dc_resistance_ohm``, flux-density fields, and the
+        inverse's ``turns_exact`` and neighbours.
+    """
+    result = turns_block(form, turns=turns, target=target)
+    chosen = result["turns"]
+    parameters = form.effective_parameters()
+    implied_mu = form.al * parameters["le"] / (mu_0 * parameters["ae"])
+    result.update(
+        al_H=form.al,
+        al_basis=form.al_basis,
+        mu_r=form.mu_r if form.mu_r is not None else implied_mu,
+        mu_r_implied=form.mu_r is None,
+        inner_diameter_m=form.inner_diameter,
+        outer_diameter_m=form.outer_diameter,
+        height_m=form.height,
+        c1_per_m=parameters["c1"],
+        c2_per_m3=parameters["c2"],
+        le_m=parameters["le"],
+        ae_m2=parameters["ae"],
+        ve_m3=parameters["ve"],
+        layers=form.layers,
+        turns_one_layer=form.turns_one_layer(),
+        max_turns=int(form.max_turns()),
+        **_winding_fields(form, chosen, temperature_C),
+        **drive_fields(form, chosen, **drive),
+    )
+    return result
+
+
+def gapped_result(form: GappedCore, *, turns: int | None = None, target: float | None = None,
+                  temperature_C: float = 20.0, **drive) -> dict:
+    """Forward or inverse answer for a gapped core, with fringing shown separately.
+
+    Returns
+    -------
+    dict
+        ``turns``, ``inductance_H``, ``al_H`` (in use), ``al_no_fringing_H``,
+        ``fringing_factor``, ``gap_m``, ``ae_m2``, ``le_m``, ``effective_mu``,
+        ``turns_per_layer``, ``max_turns``, winding and flux-density fields.
+    """
+    result = turns_block(form, turns=turns, target=target)
+    chosen = result["turns"]
+    al = form.al_value
+    factor = form.fringing_factor() if form.al is None else 1.0
+    result.update(
+        al_H=al,
+        al_no_fringing_H=al / factor,
+        fringing_factor=factor,
+        gap_m=form.gap,
+        mu_r=form.mu_r,
+        ae_m2=form.ae,
+        le_m=form.le,
+        effective_mu=al * form.le / (mu_0 * form.ae),
+        turns_per_layer=form.turns_per_layer(),
+        max_turns=None if math.isinf(form.max_turns()) else int(form.max_turns()),
+        **_winding_fields(form, chosen, temperature_C),
+        **drive_fields(form, chosen, **drive),
+    )
+    return result
