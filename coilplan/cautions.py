@@ -10,6 +10,7 @@ from __future__ import annotations
 __all__ = [
     "HOT_CURRENT_DENSITY_A_PER_MM2",
     "HOT_TEMPERATURE_C",
+    "MAINS_EQUIPMENT_CLASSES",
     "MAINS_VOLTAGE_V",
     "hot_winding_cautions",
     "mains_voltage_caution",
@@ -22,6 +23,8 @@ HOT_CURRENT_DENSITY_A_PER_MM2 = 5.0
 HOT_TEMPERATURE_C = 100.0
 #: From this RMS voltage on, treat the winding as carrying mains-level voltage.
 MAINS_VOLTAGE_V = 50.0
+#: Material classes mostly found in mains-powered equipment (switching supplies, filter chokes).
+MAINS_EQUIPMENT_CLASSES = frozenset({"mnzn-power", "iron-powder-power", "fesial-powder"})
 
 
 def hot_winding_cautions(*, current_density: float = 0.0, temperature_C: float = 20.0,
@@ -62,7 +65,8 @@ def mains_voltage_caution() -> str:
 
 
 def salvaged_mains_caution() -> str:
-    """The caution for cores taken out of mains equipment (ballasts, power supplies)."""
-    return ("cores salvaged from mains equipment come from gear whose capacitors can stay charged "
-            "after unplugging (and old ballast capacitors may hold hazardous fluids): discharge, "
-            "check with a meter and handle with care before taking it apart")
+    """The caution for cores taken out of mains-powered equipment."""
+    return ("cores salvaged from mains-powered equipment (power supplies, lighting gear) come "
+            "from circuits that may hold charged capacitors, and old capacitors may hold hazardous "
+            "fluids: unplug, discharge and check with a meter before taking it apart, and follow "
+            "local electrical codes")

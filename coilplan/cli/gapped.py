@@ -85,5 +85,7 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
               "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
               "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
               "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead}
+    cautions = cored_cautions(result, temperature, material_name=core.material_name,
+                              unknown_core=core.material_name is None and bool(measured))
     emit(command="gapped", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
-         result=result, warnings_=warnings_, cautions=cored_cautions(result, temperature), render=gapped_lines)
+         result=result, warnings_=warnings_, cautions=cautions, render=gapped_lines)

@@ -11,6 +11,7 @@ import math
 
 import click
 
+from coilplan.cautions import MAINS_EQUIPMENT_CLASSES, salvaged_mains_caution
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.errors import InvalidInputError
 from coilplan.materials import (
@@ -32,13 +33,6 @@ _OVERLAP_NOTE = ("permeability alone cannot tell apart classes whose ranges over
                  "clue, such as how Q and inductance hold up with frequency, a meter on the bare core "
                  "(MnZn reads a resistance; NiZn and powder cores read open), or how the inductance "
                  "falls with DC current")
-_SALVAGE_CAUTION = ("cores salvaged from mains-powered equipment (power supplies, lighting gear) come "
-                    "from circuits that may hold charged capacitors: unplug, discharge and check with a "
-                    "meter before taking it apart, and follow local electrical codes")
-# Classes mostly found in mains-powered equipment (switching supplies, filter chokes).
-_MAINS_CLASSES = frozenset({"mnzn-power", "iron-powder-power", "fesial-powder"})
-
-
 class _FractionType(click.ParamType):
     """A fraction such as ``0.25`` or a percentage such as ``25%``."""
 
@@ -203,12 +197,12 @@ def materials(name, mu, tolerance, as_json):
             result = {"mu_measured": mu, "tolerance": tolerance,
                       "materials": [_match_result(match) for match in matches]}
             notes.append(_OVERLAP_NOTE)
-            cautions.append(_SALVAGE_CAUTION)
+            cautions.append(salvaged_mains_caution())
         elif name is not None:
             core = material(name, option="MATERIAL")
             result = {"materials": [_material_result(core)]}
-            if core.name in _MAINS_CLASSES:
-                cautions.append(_SALVAGE_CAUTION)
+            if core.name in MAINS_EQUIPMENT_CLASSES:
+                cautions.append(salvaged_mains_caution())
         else:
             result = {"materials": [_material_result(core) for core in all_materials()]}
 

@@ -54,5 +54,7 @@ def toroid(outer, inner, height, layers, turns, target, wire_text, grade, overal
               "al_H": al, "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
               "bsat_T": bsat, "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
               "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead}
+    cautions = cored_cautions(result, temperature, material_name=core.material_name,
+                              unknown_core=core.material_name is None and bool(measured))
     emit(command="toroid", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
-         result=result, warnings_=warnings_, cautions=cored_cautions(result, temperature), render=toroid_lines)
+         result=result, warnings_=warnings_, cautions=cautions, render=toroid_lines)

@@ -6,7 +6,13 @@ import math
 
 from scipy.constants import mu_0
 
-from coilplan.cautions import MAINS_VOLTAGE_V, hot_winding_cautions, mains_voltage_caution
+from coilplan.cautions import (
+    MAINS_EQUIPMENT_CLASSES,
+    MAINS_VOLTAGE_V,
+    hot_winding_cautions,
+    mains_voltage_caution,
+    salvaged_mains_caution,
+)
 from coilplan.forms import GappedCore, Toroid
 from coilplan.results._common import turns_block
 from coilplan.saturation import saturation_check
@@ -39,13 +45,20 @@ def drive_fields(form, turns: int, *, dc_current: float = 0.0, ac_current: float
     return fields
 
 
-def cored_cautions(result: dict, temperature_C: float) -> list[str]:
-    """The cautions a cored result calls for: hot winding, saturation, mains voltage."""
+def cored_cautions(result: dict, temperature_C: float, *, material_name: str | None = None,
+                   unknown_core: bool = False) -> list[str]:
+    """The cautions a cored result calls for: hot winding, saturation, mains voltage, salvaged cores.
+
+    A core of a class mostly found in mains-powered gear, or an unknown core being
+    identified from a test winding, brings the caution about salvaged equipment.
+    """
     cautions = hot_winding_cautions(current_density=result.get("current_density_A_per_mm2", 0.0),
                                     temperature_C=temperature_C,
                                     near_saturation=bool(result.get("near_saturation")))
     if (result.get("ac_voltage_V") or 0.0) >= MAINS_VOLTAGE_V:
         cautions.append(mains_voltage_caution())
+    if unknown_core or material_name in MAINS_EQUIPMENT_CLASSES:
+        cautions.append(salvaged_mains_caution())
     return cautions
 
 
