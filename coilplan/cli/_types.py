@@ -21,9 +21,10 @@ def _message(error: InvalidInputError) -> str:
 class QuantityType(click.ParamType):
     """A value with its unit, e.g. ``QuantityType("H")`` reads ``10uH``, returns SI."""
 
-    def __init__(self, unit: str, *, allow_zero: bool = False):
+    def __init__(self, unit: str, *, allow_zero: bool = False, allow_negative: bool = False):
         self.unit = unit
         self.allow_zero = allow_zero
+        self.allow_negative = allow_negative
         self.name = {"H": "inductance", "F": "capacitance", "Hz": "frequency", "m": "length", "m2": "area",
                      "ohm": "resistance", "A": "current", "V": "voltage", "T": "flux density",
                      "H/t2": "AL"}.get(unit, unit)
@@ -32,7 +33,8 @@ class QuantityType(click.ParamType):
         if isinstance(value, float):
             return value
         try:
-            return parse_quantity(value, self.unit, allow_zero=self.allow_zero)
+            return parse_quantity(value, self.unit, allow_zero=self.allow_zero,
+                                  allow_negative=self.allow_negative)
         except InvalidInputError as error:
             self.fail(_message(error), param, ctx)
 

@@ -6,6 +6,7 @@ import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
 from coilplan.forms import Toroid
 from coilplan.report.cored_text import toroid_lines
@@ -19,11 +20,13 @@ __all__ = ["toroid"]
 @click.option("--od", "outer", type=LENGTH, required=True, help="Outside diameter of the ring.")
 @click.option("--id", "inner", type=LENGTH, required=True, help="Inside diameter (the hole).")
 @click.option("--height", type=LENGTH, required=True, help="Height (thickness) of the ring.")
+@click.option("--chamfer", type=QuantityType("m", allow_zero=True), default="0mm", show_default=True,
+              help="Leg of a 45° chamfer on the ring's edges.")
 @click.option("--layers", type=click.Choice(["one", "many"]), default="one", show_default=True,
               help="One layer on the inside circumference, or layer on layer.")
 @core_options
 @json_option
-def toroid(outer, inner, height, layers, turns, target, wire_text, grade, overall, mu, material, al, measured,
+def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grade, overall, mu, material, al, measured,
            bsat, current, ac_current, ac_voltage, frequency, temperature, lead, as_json):
     """Ring core (toroid) of rectangular section: AL by IEC 60205, turns, fit and saturation.
 
@@ -40,7 +43,7 @@ def toroid(outer, inner, height, layers, turns, target, wire_text, grade, overal
         form = Toroid(inner_diameter=inner, outer_diameter=outer, height=height, wire=wire, al=al_used,
                       al_basis=core.basis, mu_r=core.mu_r if al_used is None else None,
                       saturation_flux_density=core.saturation_flux_density,
-                      layers=layers, lead=lead)
+                      layers=layers, lead=lead, chamfer=chamfer)
         result = toroid_result(form, turns=turns, target=target, temperature_C=temperature, **drive)
         if core.al_fit is not None:
             result["measured_residuals"] = list(core.al_fit.residuals)
@@ -49,7 +52,7 @@ def toroid(outer, inner, height, layers, turns, target, wire_text, grade, overal
 
             matches = materials_for_permeability(result["mu_r"])
             result["matching_materials"] = [match.material.name for match in matches]
-    inputs = {"od_m": outer, "id_m": inner, "height_m": height, "layers": layers, "turns": turns,
+    inputs = {"od_m": outer, "id_m": inner, "height_m": height, "chamfer_m": chamfer, "layers": layers, "turns": turns,
               "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
               "al_H": al, "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
               "bsat_T": bsat, "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,

@@ -45,6 +45,8 @@ class Toroid:
         hole closes (a theoretical most; hand winding stops well short of it).
     lead : float
         Lead allowance per end, m.
+    chamfer : float
+        Leg of a 45° chamfer on the ring's edges, m (0: square edges).
 
     Notes
     -----
@@ -65,6 +67,7 @@ class Toroid:
     saturation_flux_density: float | None = None
     layers: ToroidLayers = "one"
     lead: float = 0.0
+    chamfer: float = 0.0
     _layer_table: tuple = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
@@ -83,6 +86,10 @@ class Toroid:
             object.__setattr__(self, "al", float(al_value(self.mu_r, parameters["ae"], parameters["le"])))
         if not (math.isfinite(self.lead) and self.lead >= 0):
             raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+        if not (math.isfinite(self.chamfer) and 0 <= self.chamfer
+                < min(self.height, (self.outer_diameter - self.inner_diameter) / 2) / 2):
+            raise InvalidInputError("--chamfer", "a chamfer of zero or more, under half the height and the "
+                                    "radial width", format_length(self.chamfer))
         if self.layers not in ("one", "many"):
             raise InvalidInputError("--layers", "one or many", self.layers)
         if math.pi * (self.inner_diameter - self.wire.overall_diameter) < self.wire.overall_diameter:
@@ -92,8 +99,9 @@ class Toroid:
         object.__setattr__(self, "_layer_table", self._layers())
 
     # geometry -----------------------------------------------------------------
-    def _layers(self) -> tuple[np.ndarray, np.ndarray]:
+    def _layers(self, layers: str | None = None) -> tuple[np.ndarray, np.ndarray]:
         """Turns and wire length per turn of each layer, innermost first."""
+        layers = self.layers if layers is None else layers
         d = self.wire.overall_diameter
         width = (self.outer_diameter - self.inner_diameter) / 2.0
         counts, per_turn = [], []
@@ -104,22 +112,32 @@ class Toroid:
             if turns < 1:
                 break
             counts.append(turns)
-            offset = (2 * layer - 1) * d  # the wire centres' rectangle grows by this both ways
-            per_turn.append(2.0 * (width + self.height) + 2.0 * offset)
-            if self.layers == "one":
+            # wire centres (layer − ½)·d off the core on every side: each side of the
+            # section's rectangle grows by (2·layer − 1)·d, the perimeter by four times that
+            grown = (2 * layer - 1) * d
+            per_turn.append(2.0 * (width + self.height) + 4.0 * grown)
+            if layers == "one":
                 break
             layer += 1
         return np.array(counts, dtype=float), np.array(per_turn)
 
     def effective_parameters(self) -> dict[str, float]:
         """IEC 60205 C1, C2, le, Ae, Ve of the ring, SI."""
-        c1, c2 = ring_core_constants(self.inner_diameter, self.outer_diameter, self.height)
+        c1, c2 = ring_core_constants(self.inner_diameter, self.outer_diameter, self.height, self.chamfer)
         le, ae, ve = effective_parameters(c1, c2)
         return {"c1": float(c1), "c2": float(c2), "le": float(le), "ae": float(ae), "ve": float(ve)}
 
     def turns_one_layer(self) -> int:
         """Turns a single layer on the inside circumference holds."""
         return int(self._layer_table[0][0])
+
+    def turns_window(self) -> int:
+        """Turns layer on layer until the hole closes (a theoretical most)."""
+        return int(self._layers("many")[0].sum())
+
+    def wire_per_turn(self) -> float:
+        """Wire for one turn of the first layer, m."""
+        return float(self._layer_table[1][0])
 
     # protocol -----------------------------------------------------------------
     def inductance(self, turns):

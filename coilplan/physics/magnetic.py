@@ -37,18 +37,28 @@ __all__ = [
 ]
 
 
-def ring_core_constants(inner_diameter, outer_diameter, height):
-    r"""Core constants C1, C2 of a ring (toroid) of rectangular cross-section.
+def ring_core_constants(inner_diameter, outer_diameter, height, chamfer=0.0):
+    r"""Core constants C1, C2 of a ring (toroid) of rectangular cross-section, edges optionally chamfered.
 
     .. math::
 
-        C_1 = \oint\frac{dl}{A} = \frac{2\pi}{h\,\ln(r_2/r_1)},\qquad
-        C_2 = \oint\frac{dl}{A^2} = \frac{2\pi\,(1/r_1 - 1/r_2)}{h^2 \ln^3(r_2/r_1)}
+        C_1 = rac{2\pi}{I_1},\quad C_2 = rac{2\pi\,I_2}{I_1^3},\qquad
+        I_1 = \int_{r_1}^{r_2}rac{h(r)}{r}\,dr,\quad I_2 = \int_{r_1}^{r_2}rac{h(r)}{r^2}\,dr
+
+    which for a plain rectangle (h(r) = h) are the familiar
+
+    .. math::
+
+        C_1 = rac{2\pi}{h\,\ln(r_2/r_1)},\qquad
+        C_2 = rac{2\pi\,(1/r_1 - 1/r_2)}{h^2 \ln^3(r_2/r_1)}
 
     Parameters
     ----------
     inner_diameter, outer_diameter, height : float or array_like
         ID = 2 r1, OD = 2 r2 and height h of the ring, m; OD > ID > 0.
+    chamfer : float or array_like
+        Leg c of a 45° chamfer on each of the four edges, m (0: square edges);
+        the section's height falls by 2(c − x) within c of either face's edge.
 
     Returns
     -------
@@ -57,10 +67,12 @@ def ring_core_constants(inner_diameter, outer_diameter, height):
 
     Notes
     -----
-    The ring formulas of [IEC60205]_ for a rectangular section without chamfer.
-    They follow from treating the ring as concentric thin rings in parallel;
+    The rectangular ring formulas are those of [IEC60205]_. They follow from
+    the field of the ring, H ∝ 1/r, across concentric thin rings in parallel;
     with uniform µ they make µ0 µr N² Ae/le = µ0 µr N² h ln(OD/ID)/(2π) exactly,
-    the result of Ampère's law.
+    Ampère's law. The chamfered form applies the same two integrals to the
+    reduced height h(r) (derived here, not quoted from the standard); the
+    chamfer must be under half the height and the radial width.
 
     Examples
     --------
@@ -71,9 +83,20 @@ def ring_core_constants(inner_diameter, outer_diameter, height):
     r1 = np.asarray(inner_diameter, dtype=float) / 2.0
     r2 = np.asarray(outer_diameter, dtype=float) / 2.0
     h = np.asarray(height, dtype=float)
-    log_ratio = np.log(r2 / r1)
-    c1 = 2.0 * np.pi / (h * log_ratio)
-    c2 = 2.0 * np.pi * (1.0 / r1 - 1.0 / r2) / (h * h * log_ratio**3)
+    c = np.asarray(chamfer, dtype=float)
+    # I1 = ∫ h/r dr and I2 = ∫ h/r² dr for the full rectangle ...
+    i1 = h * np.log(r2 / r1)
+    i2 = h * (1.0 / r1 - 1.0 / r2)
+    # ... less the two chamfered strips, where the height is short by 2(c − (r − r1))
+    # near r1, and by 2(c − (r2 − r)) near r2: both linear in r, integrated exactly.
+    for start, stop, intercept, slope in ((r1, r1 + c, 2.0 * (c + r1), -2.0),
+                                          (r2 - c, r2, 2.0 * (c - r2), 2.0)):
+        with np.errstate(divide="ignore", invalid="ignore"):
+            log_ratio = np.where(c > 0, np.log(stop / start), 0.0)
+            i1 = i1 - (intercept * log_ratio + slope * (stop - start))
+            i2 = i2 - (intercept * np.where(c > 0, 1.0 / start - 1.0 / stop, 0.0) + slope * log_ratio)
+    c1 = 2.0 * np.pi / i1
+    c2 = 2.0 * np.pi * i2 / i1**3
     return c1, c2
 
 

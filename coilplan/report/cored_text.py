@@ -6,7 +6,7 @@ from coilplan.quantities import format_length, format_quantity
 from coilplan.report.text import aligned_rows
 from coilplan.report.turns_rows import henry, turns_rows
 
-__all__ = ["gapped_lines", "toroid_lines"]
+__all__ = ["gapped_lines", "rod_lines", "toroid_lines"]
 
 
 def _al(value: float) -> str:
@@ -76,9 +76,9 @@ def toroid_lines(result: dict) -> list[str]:
         ("effective area Ae", f"{result['ae_m2'] * 1e6:.4g} mm²", "IEC 60205"),
         ("effective volume Ve", f"{result['ve_m3'] * 1e9:.4g} mm³", "IEC 60205"),
         ("one layer holds", f"{result['turns_one_layer']} turns", "on the inside circumference"),
+        ("window holds", f"{result['turns_window']} turns", "layer on layer to the centre (theoretical)"),
+        ("wire per turn", format_length(result["wire_per_turn_m"]), "first layer"),
     ]
-    if result["layers"] == "many":
-        rows.append(("window holds", f"{result['max_turns']} turns", "layer on layer to the centre (theoretical)"))
     rows += _winding_rows(result) + _drive_rows(result)
     if result.get("matching_materials"):
         rows.append(("material classes", ", ".join(result["matching_materials"]),
@@ -119,5 +119,32 @@ def gapped_lines(result: dict) -> list[str]:
         rows.append(("turns per layer", f"{result['turns_per_layer']}"))
     if result["max_turns"] is not None:
         rows.append(("window holds", f"{result['max_turns']} turns", "layer winding"))
+    rows += _winding_rows(result) + _drive_rows(result)
+    return [title, "", *aligned_rows(rows)]
+
+
+def rod_lines(result: dict) -> list[str]:
+    """Lines of the rod-coil report: the answer, the rod's effect, the winding and the model's standing."""
+    title = (f"Coil on a ferrite rod for {henry(result['target_H'])}" if "target_H" in result
+             else f"Coil on a ferrite rod, {result['turns']} turns")
+    rows = turns_rows(result)
+    rows += [
+        ("without the rod", henry(result["air_inductance_H"]), "the same winding in air (Nagaoka sheet)"),
+        ("rod", f"{format_length(result['rod_length_m'])} × {format_length(result['rod_diameter_m'])}",
+         f"material µi {result['mu_initial']:g}"),
+        ("rod permeability", f"{result['rod_permeability']:.4g}",
+         "apparent, at the rod's middle (cylinder's demagnetising factor)"),
+        ("coil diameter", format_length(result["diameter_m"]), "to wire centres"),
+        ("pitch", format_length(result["pitch_m"])),
+        ("winding length", format_length(result["length_m"]),
+         "centred on the rod" if result["position_m"] == 0 else
+         f"centre {format_length(abs(result['position_m']))} off the rod's centre"),
+        ("most that fit", f"{result['max_turns']} turns"),
+    ]
+    if result["calibrated"]:
+        residuals = ", ".join(f"{value:+.2%}" for value in result["measured_residuals"])
+        rows.append(("model calibrated", f"× {result['model_factor']:.4f}", f"from the readings; residuals {residuals}"))
+    else:
+        rows.append(("model", "uncalibrated", "rough: tens of percent; add --measured L@N from a test winding"))
     rows += _winding_rows(result) + _drive_rows(result)
     return [title, "", *aligned_rows(rows)]

@@ -17,7 +17,7 @@ from coilplan.forms import GappedCore, Toroid
 from coilplan.results._common import turns_block
 from coilplan.saturation import saturation_check
 
-__all__ = ["cored_cautions", "drive_fields", "gapped_result", "toroid_result"]
+__all__ = ["cored_cautions", "drive_fields", "gapped_result", "rod_result", "toroid_result"]
 
 
 def drive_fields(form, turns: int, *, dc_current: float = 0.0, ac_current: float = 0.0,
@@ -115,8 +115,11 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
         ae_m2=parameters["ae"],
         ve_m3=parameters["ve"],
         layers=form.layers,
+        chamfer_m=form.chamfer,
         turns_one_layer=form.turns_one_layer(),
+        turns_window=form.turns_window(),
         max_turns=int(form.max_turns()),
+        wire_per_turn_m=form.wire_per_turn(),
         **_winding_fields(form, chosen, temperature_C),
         **drive_fields(form, chosen, **drive),
     )
@@ -152,4 +155,48 @@ def gapped_result(form: GappedCore, *, turns: int | None = None, target: float |
         **_winding_fields(form, chosen, temperature_C),
         **drive_fields(form, chosen, **drive),
     )
+    return result
+
+
+def rod_result(form, *, turns: int | None = None, target: float | None = None, temperature_C: float = 20.0,
+               calibration=None, **drive) -> dict:
+    """Forward or inverse answer for a coil on a ferrite rod.
+
+    Parameters
+    ----------
+    form : RodCoil or ScaledForm of one
+        The rod coil, calibrated (a :class:`~coilplan.calibrate.ScaledForm`) or not.
+    calibration : ScaleFit, optional
+        The fit that produced the scale factor, for its residuals.
+
+    Returns
+    -------
+    dict
+        ``turns``, ``inductance_H``, ``air_inductance_H``, ``rod_permeability``,
+        ``model_factor`` (1 when uncalibrated), ``coil_length_m`` (current sheet),
+        ``length_m`` (winding, end to end), ``pitch_m``, ``diameter_m`` (to wire
+        centres), winding and flux-density fields, and the inverse's neighbours.
+    """
+    result = turns_block(form, turns=turns, target=target)
+    chosen = result["turns"]
+    factor = getattr(form, "factor", 1.0)
+    result.update(
+        rod_length_m=form.rod_length,
+        rod_diameter_m=form.rod_diameter,
+        mu_initial=form.mu_initial,
+        rod_permeability=form.rod_permeability(),
+        air_inductance_H=float(form.air_inductance(chosen)),
+        model_factor=factor,
+        calibrated=calibration is not None,
+        coil_length_m=float(form.sheet_length(chosen)),
+        length_m=float(form.winding_length(chosen)),
+        pitch_m=float(form.pitch_at(chosen)),
+        diameter_m=form.coil_diameter,
+        position_m=form.position,
+        max_turns=math.floor(form.max_turns() + 1e-9),
+        **_winding_fields(form, chosen, temperature_C),
+        **drive_fields(form, chosen, **drive),
+    )
+    if calibration is not None:
+        result["measured_residuals"] = list(calibration.residuals)
     return result

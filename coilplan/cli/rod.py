@@ -1,0 +1,71 @@
+"""``coilplan rod``: a coil on a ferrite rod, forward or inverse, calibrated by a reading if given."""
+
+from __future__ import annotations
+
+import warnings
+
+import click
+
+from coilplan.calibrate import ScaledForm, fit_scale
+from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli._types import QuantityType
+from coilplan.cli.solenoid import one_of
+from coilplan.errors import InvalidInputError, OutsideValidityWarning
+from coilplan.forms import RodCoil
+from coilplan.report.cored_text import rod_lines
+from coilplan.results.cored import cored_cautions, rod_result
+from coilplan.wire import parse_wire
+
+__all__ = ["rod"]
+
+_UNCALIBRATED = ("the rod model is uncalibrated: expect tens of percent from a real rod; wind a few test "
+                 "turns, measure, and give --measured L@N for an answer to trim by")
+
+
+@click.command()
+@click.option("--rod-length", type=LENGTH, required=True, help="Length of the ferrite rod.")
+@click.option("--rod-diameter", type=LENGTH, required=True, help="Diameter of the rod.")
+@click.option("--former", type=LENGTH, help="Outside diameter of a former round the rod; default wound on the rod.")
+@click.option("--pitch", type=LENGTH, help="Distance between turn centres; default close wound.")
+@click.option("--coil-length", type=LENGTH, help="Fixed winding length to spread the turns over.")
+@click.option("--position", type=QuantityType("m", allow_zero=True, allow_negative=True), default="0mm",
+              show_default=True, help="Offset of the coil's centre from the rod's centre.")
+@click.option("--max-length", type=LENGTH, help="Usable winding length; default the rod's length.")
+@core_options
+@json_option
+def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_length, turns, target, wire_text,
+        grade, overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
+        lead, as_json):
+    """Coil on a ferrite rod: the rod's apparent permeability from a cylinder's demagnetising
+    factor, and the coil's length, diameter and position on the rod.
+
+    The model is rough (tens of percent) until calibrated: give --measured L@N from a test
+    winding and the answer is scaled to it, keeping how L changes as the winding grows.
+    """
+    one_of(("--turns", turns), ("--target", target))
+    if al is not None:
+        raise InvalidInputError("--al", "no AL value for a rod (the winding's length matters): use --measured", None)
+    core = resolve_core(mu=mu, material=material, al=None, measured=None, bsat=bsat, temperature=temperature)
+    wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
+    drive = drive_arguments(current, ac_current, ac_voltage, frequency)
+    with captured_warnings() as warnings_:
+        form = RodCoil(rod_length=rod_length, rod_diameter=rod_diameter, mu_initial=core.mu_r, wire=wire,
+                       former_diameter=former, pitch=pitch, coil_length=coil_length, position=position,
+                       max_length=max_length, saturation_flux_density=core.saturation_flux_density, lead=lead)
+        calibration = fit_scale(form, measured) if measured else None
+        if calibration is not None:
+            form = ScaledForm(form, calibration.factor)
+        else:
+            warnings.warn(_UNCALIBRATED, OutsideValidityWarning, stacklevel=1)
+        result = rod_result(form, turns=turns, target=target, temperature_C=temperature, calibration=calibration,
+                            **drive)
+    inputs = {"rod_length_m": rod_length, "rod_diameter_m": rod_diameter, "former_diameter_m": former,
+              "pitch_m": pitch, "coil_length_m": coil_length, "position_m": position, "max_length_m": max_length,
+              "turns": turns, "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
+              "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
+              "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
+              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead}
+    cautions = cored_cautions(result, temperature, material_name=core.material_name)
+    emit(command="rod", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
+         result=result, warnings_=warnings_, cautions=cautions, render=rod_lines)
