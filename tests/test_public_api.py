@@ -18,3 +18,14 @@ def test_physics_exports_are_sorted():
     assert physics.__all__ == sorted(physics.__all__)
     for name in physics.__all__:
         assert callable(getattr(physics, name))
+
+
+def test_every_subpackage_ships():
+    """Each package folder under coilplan/ is listed for the wheel (a missing one breaks the install)."""
+    import pathlib
+    import tomllib
+
+    root = pathlib.Path(__file__).resolve().parent.parent
+    listed = set(tomllib.loads((root / "pyproject.toml").read_text())["tool"]["setuptools"]["packages"])
+    found = {".".join(path.parent.relative_to(root).parts) for path in (root / "coilplan").rglob("__init__.py")}
+    assert found <= listed

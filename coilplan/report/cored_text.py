@@ -143,7 +143,8 @@ def rod_lines(result: dict) -> list[str]:
     ]
     if result["calibrated"]:
         residuals = ", ".join(f"{value:+.2%}" for value in result["measured_residuals"])
-        rows.append(("model calibrated", f"× {result['model_factor']:.4f}", f"from the readings; residuals {residuals}"))
+        rows.append(("model calibrated", f"× {result['model_factor']:.4f}",
+                     f"from the readings; residuals {residuals}"))
     else:
         rows.append(("model", "uncalibrated", "rough: tens of percent; add --measured L@N from a test winding"))
     rows += _winding_rows(result) + _drive_rows(result)
