@@ -15,7 +15,9 @@ __all__ = [
     "CoilplanError",
     "DataFileError",
     "InfeasibleError",
+    "CoilplanWarning",
     "InvalidInputError",
+    "MeasurementWarning",
     "OutsideValidityWarning",
     "SolverError",
 ]
@@ -108,5 +110,13 @@ class SolverError(CoilplanError, RuntimeError):
     """The inverse solver did not converge (a defect, not a user error)."""
 
 
-class OutsideValidityWarning(UserWarning):
+class CoilplanWarning(UserWarning):
+    """Base class of the warnings coilplan gives about an answer (the command line lists them)."""
+
+
+class OutsideValidityWarning(CoilplanWarning):
     """A formula was used outside the range its source states it is valid for."""
+
+
+class MeasurementWarning(CoilplanWarning):
+    """Readings that do not follow the model, a frequency near self-resonance, an assumed tolerance."""

@@ -23,6 +23,7 @@ _COMMANDS: dict[str, tuple[str, str, str]] = {
     "materials": ("materials", "materials", "Generic core material classes; which ones a measured permeability fits."),
     "solenoid": ("solenoid", "solenoid", "Single-layer air-core coil: inductance from turns, or turns for a target."),
     "toroid": ("toroid", "toroid", "Ring core: AL (IEC 60205), turns, fit in the hole, saturation."),
+    "rewind": ("rewind", "rewind", "Measured coil on a closed core: turns to add or remove, from readings alone."),
     "rod": ("rod", "rod", "Coil on a ferrite rod: turns or inductance, calibrated by a reading."),
     "gapped": ("gapped", "gapped", "Gapped core (E, pot, drum): AL with fringing, turns or gap, saturation."),
     "wire": ("wire", "wire", "Wire gauges: bare and enamelled diameters, resistance, current."),

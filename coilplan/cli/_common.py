@@ -8,7 +8,7 @@ from collections.abc import Callable, Iterator
 
 import click
 
-from coilplan.errors import OutsideValidityWarning
+from coilplan.errors import CoilplanWarning
 from coilplan.report import bullet_lines, json_document
 
 __all__ = ["captured_warnings", "emit", "json_option"]
@@ -22,10 +22,10 @@ def captured_warnings() -> Iterator[list[str]]:
     """Collect the library's range warnings as text, each once, in order."""
     messages: list[str] = []
     with warnings.catch_warnings(record=True) as caught:
-        warnings.simplefilter("always", OutsideValidityWarning)
+        warnings.simplefilter("always", CoilplanWarning)
         yield messages
     for item in caught:
-        if issubclass(item.category, OutsideValidityWarning):
+        if issubclass(item.category, CoilplanWarning):
             text = str(item.message)
             if text not in messages:
                 messages.append(text)

@@ -7,7 +7,6 @@ from dataclasses import dataclass
 
 import click
 
-from coilplan.calibrate import AlFit, fit_al
 from coilplan.cli._types import CountType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_quantity, parse_measurement
@@ -66,7 +65,6 @@ class CoreChoice:
     """What the user said about the core, resolved: permeability, AL fit and saturation."""
 
     mu_r: float | None
-    al_fit: AlFit | None
     al_given: float | None
     saturation_flux_density: float | None
     material_name: str | None
@@ -92,8 +90,7 @@ def resolve_core(*, mu, material, al, measured, bsat, temperature, allow_gap=Fal
     limit = bsat
     if limit is None and chosen is not None:
         limit = float(chosen.saturation_flux_density(temperature))
-    fit = fit_al(measured) if measured else None
-    if fit is not None:
+    if measured:
         readings = ", ".join(f"{format_quantity(value, 'H')} at {turns} turns" for value, turns in measured)
         basis = f"measured: {readings}"
     elif al is not None:
@@ -104,7 +101,7 @@ def resolve_core(*, mu, material, al, measured, bsat, temperature, allow_gap=Fal
         basis = f"permeability {mu_r:g}"
     else:
         basis = "gap and permeability"
-    return CoreChoice(mu_r, fit, al, limit, chosen.name if chosen is not None else None, basis)
+    return CoreChoice(mu_r, al, limit, chosen.name if chosen is not None else None, basis)
 
 
 def drive_arguments(current, ac_current, ac_voltage, frequency) -> dict:

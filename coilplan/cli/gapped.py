@@ -6,6 +6,7 @@ import click
 
 from coilplan.choke import design_choke
 from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
@@ -29,10 +30,11 @@ __all__ = ["gapped"]
 @click.option("--max-flux", type=QuantityType("T"),
               help=f"Design limit for the peak flux density; default {NEAR_SATURATION:.0%} of B_sat.")
 @core_options
+@measurement_options
 @json_option
 def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns, target, wire_text, grade,
            overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
-           lead, as_json):
+           lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, as_json):
     """Gapped core: AL = µ0·Ae/(gap + le/µr), with the fringing correction shown apart.
 
     With --gap: --turns gives L, --target gives the turns. Without --gap: --turns and
@@ -43,7 +45,9 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
                         allow_gap=True)
     wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
     drive = drive_arguments(current, ac_current, ac_voltage, frequency)
-    known_al = core.al_fit.al if core.al_fit is not None else core.al_given
+    conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
+                                 self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
+    known_al = core.al_given if core.al_given is not None else (1.0 if measured else None)  # set by the fit
     if known_al is not None and gap is not None:
         raise InvalidInputError("--gap", "either --gap (with --mu or --material) or a known AL, not both", None)
     if known_al is None and core.mu_r is None:
@@ -55,12 +59,18 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
                               fringing=not no_fringing, saturation_flux_density=core.saturation_flux_density,
                               lead=lead)
         if gap is not None or known_al is not None:
-            form = template if gap is None else GappedCore(**{**template.__dict__, "gap": gap})
             if turns is None and target is None:
                 raise InvalidInputError("--turns", "--turns or --target", None)
             if turns is not None and target is not None:
                 raise InvalidInputError("--turns", "either --turns or --target with a known gap, not both", None)
-            result = gapped_result(form, turns=turns, target=target, temperature_C=temperature, **drive)
+            base = template if gap is None else GappedCore(**{**template.__dict__, "gap": gap})
+
+            def build(fitted_al):
+                return base if fitted_al is None else GappedCore(**{**base.__dict__, "al": fitted_al})
+
+            form, readings = calibrate_form(build, measured, conditions, "al")
+            result = gapped_result(form, turns=turns, target=target, temperature_C=temperature,
+                                   measured=readings, **drive)
         elif turns is not None and target is not None:
             mode = "gap for turns"
             form = GappedCore(**{**template.__dict__, "gap": template.gap_for_al(target / turns**2)})
@@ -84,7 +94,8 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
               "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material, "al_H": al,
               "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
               "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead}
+              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead,
+              "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name,
                               unknown_core=core.material_name is None and bool(measured))
     emit(command="gapped", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},

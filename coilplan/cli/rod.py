@@ -6,8 +6,8 @@ import warnings
 
 import click
 
-from coilplan.calibrate import ScaledForm, fit_scale
 from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
@@ -33,10 +33,11 @@ _UNCALIBRATED = ("the rod model is uncalibrated: expect tens of percent from a r
               show_default=True, help="Offset of the coil's centre from the rod's centre.")
 @click.option("--max-length", type=LENGTH, help="Usable winding length; default the rod's length.")
 @core_options
+@measurement_options
 @json_option
 def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_length, turns, target, wire_text,
         grade, overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
-        lead, as_json):
+        lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, as_json):
     """Coil on a ferrite rod: the rod's apparent permeability from a cylinder's demagnetising
     factor, and the coil's length, diameter and position on the rod.
 
@@ -49,23 +50,26 @@ def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_leng
     core = resolve_core(mu=mu, material=material, al=None, measured=None, bsat=bsat, temperature=temperature)
     wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
     drive = drive_arguments(current, ac_current, ac_voltage, frequency)
-    with captured_warnings() as warnings_:
-        form = RodCoil(rod_length=rod_length, rod_diameter=rod_diameter, mu_initial=core.mu_r, wire=wire,
+    conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
+                                 self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
+
+    def build(_):
+        return RodCoil(rod_length=rod_length, rod_diameter=rod_diameter, mu_initial=core.mu_r, wire=wire,
                        former_diameter=former, pitch=pitch, coil_length=coil_length, position=position,
                        max_length=max_length, saturation_flux_density=core.saturation_flux_density, lead=lead)
-        calibration = fit_scale(form, measured) if measured else None
-        if calibration is not None:
-            form = ScaledForm(form, calibration.factor)
-        else:
+
+    with captured_warnings() as warnings_:
+        form, readings = calibrate_form(build, measured, conditions, "scale")
+        if readings is None:
             warnings.warn(_UNCALIBRATED, OutsideValidityWarning, stacklevel=1)
-        result = rod_result(form, turns=turns, target=target, temperature_C=temperature, calibration=calibration,
-                            **drive)
+        result = rod_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings, **drive)
     inputs = {"rod_length_m": rod_length, "rod_diameter_m": rod_diameter, "former_diameter_m": former,
               "pitch_m": pitch, "coil_length_m": coil_length, "position_m": position, "max_length_m": max_length,
               "turns": turns, "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
               "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
               "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead}
+              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead,
+              "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name)
     emit(command="rod", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
          result=result, warnings_=warnings_, cautions=cautions, render=rod_lines)

@@ -5,6 +5,8 @@ from __future__ import annotations
 import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._cored import MeasurementType
+from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
 from coilplan.cli._types import CountType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SOLENOID_METHODS, Solenoid
@@ -44,9 +46,14 @@ def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
               help="Winding temperature for a second DC resistance figure.")
 @click.option("--method", type=click.Choice(list(SOLENOID_METHODS)), default="nagaoka-rosa",
               show_default=True, help="Inductance method (see the README for accuracy).")
+@click.option("--measured", "measured", type=MeasurementType(), multiple=True,
+              help="A reading L@N on this coil, e.g. 47uH@30 (repeatable): calibrates the model.")
+@click.option("--at", "frequency", type=QuantityType("Hz"), help="Operating frequency (with --self-capacitance).")
+@measurement_options
 @json_option
 def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, length, max_length,
-             lead, temperature, method, as_json):
+             lead, temperature, method, measured, frequency, meter_freq, tolerance, self_capacitance,
+             turns_uncertainty, as_json):
     """Single-layer air-core coil on a round former.
 
     Forward: --turns N gives the inductance. Inverse: --target gives the whole
@@ -57,16 +64,25 @@ def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, 
     one_of(("--former", former), ("--diameter", diameter))
     wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
     coil_diameter = diameter if diameter is not None else former + wire.overall_diameter
-    with captured_warnings() as warnings_:
-        form = Solenoid(diameter=coil_diameter, wire=wire, pitch=pitch, length=length,
+    conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
+                                 self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
+
+    def build(_):
+        return Solenoid(diameter=coil_diameter, wire=wire, pitch=pitch, length=length,
                         max_length=max_length, lead=lead, method=method)
+
+    with captured_warnings() as warnings_:
+        form, readings = calibrate_form(build, measured, conditions, "scale")
         result = solenoid_result(form, turns=turns, target=target, temperature_C=temperature,
-                                 former_diameter=former)
+                                 former_diameter=former, measured=readings)
     inputs = {
         "turns": turns, "target_H": target, "former_diameter_m": former, "diameter_m": diameter,
         "wire": wire_text, "grade": grade, "overall_diameter_m": overall, "pitch_m": pitch,
         "length_m": length, "max_length_m": max_length, "lead_m": lead,
         "temperature_C": temperature, "method": method,
+        "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
+        "frequency_Hz": frequency, "meter_frequency_Hz": meter_freq, "tolerance": tolerance,
+        "self_capacitance_F": self_capacitance,
     }
     emit(command="solenoid", as_json=as_json,
          inputs={key: value for key, value in inputs.items() if value is not None},

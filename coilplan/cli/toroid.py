@@ -5,6 +5,7 @@ from __future__ import annotations
 import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
@@ -25,9 +26,11 @@ __all__ = ["toroid"]
 @click.option("--layers", type=click.Choice(["one", "many"]), default="one", show_default=True,
               help="One layer on the inside circumference, or layer on layer.")
 @core_options
+@measurement_options
 @json_option
 def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grade, overall, mu, material, al, measured,
-           bsat, current, ac_current, ac_voltage, frequency, temperature, lead, as_json):
+           bsat, current, ac_current, ac_voltage, frequency, temperature, lead, meter_freq, tolerance,
+           self_capacitance, turns_uncertainty, as_json):
     """Ring core (toroid) of rectangular section: AL by IEC 60205, turns, fit and saturation.
 
     The core is given by --mu, --material, a known --al, or readings --measured L@N on a
@@ -38,15 +41,20 @@ def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grad
     core = resolve_core(mu=mu, material=material, al=al, measured=measured, bsat=bsat, temperature=temperature)
     wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
     drive = drive_arguments(current, ac_current, ac_voltage, frequency)
+    conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
+                                 self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
+
+    def build(fitted_al):
+        known = fitted_al if fitted_al is not None else core.al_given
+        return Toroid(inner_diameter=inner, outer_diameter=outer, height=height, wire=wire, al=known,
+                      al_basis=core.basis, mu_r=core.mu_r if known is None else None,
+                      saturation_flux_density=core.saturation_flux_density, layers=layers, lead=lead,
+                      chamfer=chamfer)
+
     with captured_warnings() as warnings_:
-        al_used = core.al_fit.al if core.al_fit is not None else core.al_given
-        form = Toroid(inner_diameter=inner, outer_diameter=outer, height=height, wire=wire, al=al_used,
-                      al_basis=core.basis, mu_r=core.mu_r if al_used is None else None,
-                      saturation_flux_density=core.saturation_flux_density,
-                      layers=layers, lead=lead, chamfer=chamfer)
-        result = toroid_result(form, turns=turns, target=target, temperature_C=temperature, **drive)
-        if core.al_fit is not None:
-            result["measured_residuals"] = list(core.al_fit.residuals)
+        form, readings = calibrate_form(build, measured, conditions, "al")
+        result = toroid_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings,
+                               **drive)
         if core.material_name is None and result["mu_r_implied"]:
             from coilplan.materials import materials_for_permeability
 
@@ -56,7 +64,8 @@ def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grad
               "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
               "al_H": al, "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
               "bsat_T": bsat, "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead}
+              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead,
+              "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name,
                               unknown_core=core.material_name is None and bool(measured))
     emit(command="toroid", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},

@@ -20,12 +20,13 @@ from __future__ import annotations
 
 from typing import Protocol
 
+from coilplan.forms.closed import ClosedCore
 from coilplan.forms.gapped import GappedCore
 from coilplan.forms.rod import RodCoil
 from coilplan.forms.solenoid import SOLENOID_METHODS, Solenoid, SolenoidMethod
 from coilplan.forms.toroid import Toroid
 
-__all__ = ["SOLENOID_METHODS", "CoilForm", "GappedCore", "RodCoil", "Solenoid", "SolenoidMethod", "Toroid"]
+__all__ = ["SOLENOID_METHODS", "ClosedCore", "CoilForm", "GappedCore", "RodCoil", "Solenoid", "SolenoidMethod", "Toroid"]
 
 
 class CoilForm(Protocol):

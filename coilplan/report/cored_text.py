@@ -106,8 +106,11 @@ def gapped_lines(result: dict) -> list[str]:
         rows = turns_rows(result)
         if result["gap_m"] is not None:
             rows.append(("gap", format_length(result["gap_m"]), "total in the magnetic path"))
-    rows.append(("AL value", _al(result["al_H"]),
-                 "with fringing" if result["fringing_factor"] != 1.0 else "no fringing correction"))
+    if result.get("al_from_readings"):
+        note = "from the readings"
+    else:
+        note = "with fringing" if result["fringing_factor"] != 1.0 else "no fringing correction"
+    rows.append(("AL value", _al(result["al_H"]), note))
     if result["fringing_factor"] != 1.0:
         rows.append(("  without fringing", _al(result["al_no_fringing_H"]),
                      f"McLyman factor {result['fringing_factor']:.3f} (about ±10 % on the correction)"))

@@ -25,7 +25,9 @@ def solenoid_lines(result: dict) -> list[str]:
     'Single-layer air-core coil, 3 turns'
     """
     turns = result["turns"]
-    if "target_H" in result:
+    if "turns_now" in result:
+        title = f"Single-layer air-core coil as measured, to {henry(result['target_H'])}"
+    elif "target_H" in result:
         title = f"Single-layer air-core coil for {henry(result['target_H'])}"
     else:
         title = f"Single-layer air-core coil, {turns} turns"
@@ -64,4 +66,6 @@ def solenoid_lines(result: dict) -> list[str]:
                      f"at {result['temperature_C']:g} °C"))
     rows.append(("method", result["method"], result["method_note"]))
     rows.append(("accuracy", result["method_accuracy"]))
+    if "turns_now" in result:
+        rows.append(("calibrated", f"× {result['model_factor']:.4f}", "the model scaled to the readings"))
     return [title, "", *aligned_rows(rows)]

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from coilplan.quantities import format_quantity
 
-__all__ = ["henry", "turns_rows"]
+__all__ = ["henry", "rewind_rows", "turns_rows"]
 
 
 def henry(value: float) -> str:
@@ -22,10 +22,48 @@ def turns_rows(result: dict) -> list[tuple[str, ...]]:
     """
     if "target_H" not in result:
         return [("inductance", henry(result["inductance_H"]))]
+    if "turns_now" in result:
+        return rewind_rows(result)
     rows = [("wind", f"{result['turns']} turns", f"gives {henry(result['inductance_H'])}"),
             ("exact solution", f"{result['turns_exact']:.3f} turns")]
     if result["turns_below"] != result["turns_above"]:
         rows.append(("whole turns either side",
                      f"{result['turns_below']} turns: {henry(result['inductance_below_H'])}",
                      f"{result['turns_above']} turns: {henry(result['inductance_above_H'])}"))
+    return rows
+
+
+def _change(step: int) -> str:
+    if step == 0:
+        return "no change"
+    return f"{'remove' if step < 0 else 'add'} {abs(step)} turn{'s' if abs(step) != 1 else ''}"
+
+
+def rewind_rows(result: dict) -> list[tuple[str, ...]]:
+    """The answer rows for a measured coil: now, the change, the range, the words and the plan."""
+    low, high = result["turns_range"]
+    if low is None or high is None:
+        span = "n/a"
+    else:
+        span = f"{low} turns" if low == high else f"{low} to {high} turns"
+    basis = f"±{result['uncertainty']:.1%} on the calibrated model"
+    if result["tolerance_assumed"]:
+        basis += " (meter tolerance assumed)"
+    rows = [
+        ("now", f"{result['turns_now']} turns"),
+        ("change", _change(result["turns_change"]), f"to {result['turns']} turns"),
+        ("expect", henry(result["inductance_H"]), f"at {result['turns']} turns"),
+    ]
+    if result.get("apparent_inductance_H") and result["apparent_inductance_H"] != result["inductance_H"]:
+        rows.append(("", henry(result["apparent_inductance_H"]), "apparent, at the operating frequency"))
+    rows += [
+        ("exact solution", f"{result['turns_exact']:.2f} turns"),
+        ("range", span, basis),
+    ]
+    if result.get("wire_change_m") is not None and result["wire_change_m"] == result["wire_change_m"]:
+        rows.append(("wire", f"{abs(result['wire_change_m']) * 1e3:.0f} mm",
+                     "comes off" if result["wire_change_m"] < 0 else "more to wind on"))
+    rows.append(("how", result["explanation"]))
+    for index, step in enumerate(result["plan"], start=1):
+        rows.append((f"step {index}" if len(result["plan"]) > 1 else "plan", step))
     return rows

@@ -4,21 +4,42 @@ from __future__ import annotations
 
 import math
 
-from coilplan.errors import InfeasibleError
+import warnings
+from dataclasses import dataclass
+
+from coilplan.errors import InfeasibleError, MeasurementWarning
 from coilplan.quantities import format_quantity
+from coilplan.rewind import Conditions, Fit, rewind_fields
 from coilplan.solve import solve_turns
 
-__all__ = ["check_fits", "turns_block"]
+__all__ = ["Measured", "check_fits", "turns_block"]
 
 
-def turns_block(form, *, turns: int | None, target: float | None) -> dict:
+@dataclass(frozen=True)
+class Measured:
+    """Readings of the coil as it is (as the meter showed them), their calibration, the conditions."""
+
+    readings: list
+    fit: Fit
+    conditions: Conditions
+
+
+def turns_block(form, *, turns: int | None, target: float | None, measured: Measured | None = None) -> dict:
     """``turns`` checked against what fits, or solved for ``target``, as result fields.
 
     Returns ``turns`` and, for an inverse, ``target_H``, ``turns_exact``,
     ``turns_below``, ``turns_above``, ``inductance_below_H``, ``inductance_above_H``.
+    With readings (``measured``) and a target, the answer is the rewind of the coil as
+    it is now: :func:`coilplan.rewind.rewind_fields` (``turns_now``, ``turns_change``,
+    ``turns_range`` ...), its warnings given as :class:`MeasurementWarning`.
     """
     if (turns is None) == (target is None):
         raise ValueError("give exactly one of turns and target")
+    if measured is not None and target is not None:
+        fields, texts = rewind_fields(form, target, measured.readings, measured.fit, measured.conditions)
+        for text in texts:
+            warnings.warn(text, MeasurementWarning, stacklevel=2)
+        return fields
     if target is None:
         check_fits(form, int(turns))
         return {"turns": int(turns)}

@@ -14,7 +14,7 @@ from coilplan.cautions import (
     salvaged_mains_caution,
 )
 from coilplan.forms import GappedCore, Toroid
-from coilplan.results._common import turns_block
+from coilplan.results._common import Measured, turns_block
 from coilplan.saturation import saturation_check
 
 __all__ = ["cored_cautions", "drive_fields", "gapped_result", "rod_result", "toroid_result"]
@@ -76,7 +76,7 @@ def _winding_fields(form, turns: int, temperature_C: float) -> dict:
 
 
 def toroid_result(form: Toroid, *, turns: int | None = None, target: float | None = None,
-                  temperature_C: float = 20.0, **drive) -> dict:
+                  temperature_C: float = 20.0, measured: Measured | None = None, **drive) -> dict:
     """Forward or inverse answer for a toroid, with IEC 60205 parameters and the saturation check.
 
     Parameters
@@ -86,6 +86,8 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
         Exactly one: whole turns (forward) or a target inductance, H (inverse).
     temperature_C : float
         Working temperature for the second resistance figure, °C.
+    measured : Measured, optional
+        Readings of the coil as it is, for turns to add or remove (see :func:`turns_block`).
     **drive
         ``dc_current``, ``ac_current``, ``ac_voltage``, ``frequency`` for :func:`drive_fields`.
 
@@ -97,7 +99,7 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
         ``wire_length_m``, ``dc_resistance_ohm``, flux-density fields, and the
         inverse's ``turns_exact`` and neighbours.
     """
-    result = turns_block(form, turns=turns, target=target)
+    result = turns_block(form, turns=turns, target=target, measured=measured)
     chosen = result["turns"]
     parameters = form.effective_parameters()
     implied_mu = form.al * parameters["le"] / (mu_0 * parameters["ae"])
@@ -127,7 +129,7 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
 
 
 def gapped_result(form: GappedCore, *, turns: int | None = None, target: float | None = None,
-                  temperature_C: float = 20.0, **drive) -> dict:
+                  temperature_C: float = 20.0, measured: Measured | None = None, **drive) -> dict:
     """Forward or inverse answer for a gapped core, with fringing shown separately.
 
     Returns
@@ -137,12 +139,13 @@ def gapped_result(form: GappedCore, *, turns: int | None = None, target: float |
         ``fringing_factor``, ``gap_m``, ``ae_m2``, ``le_m``, ``effective_mu``,
         ``turns_per_layer``, ``max_turns``, winding and flux-density fields.
     """
-    result = turns_block(form, turns=turns, target=target)
+    result = turns_block(form, turns=turns, target=target, measured=measured)
     chosen = result["turns"]
     al = form.al_value
     factor = form.fringing_factor() if form.al is None else 1.0
     result.update(
         al_H=al,
+        al_from_readings=measured is not None,
         al_no_fringing_H=al / factor,
         fringing_factor=factor,
         gap_m=form.gap,
@@ -159,15 +162,16 @@ def gapped_result(form: GappedCore, *, turns: int | None = None, target: float |
 
 
 def rod_result(form, *, turns: int | None = None, target: float | None = None, temperature_C: float = 20.0,
-               calibration=None, **drive) -> dict:
+               measured: Measured | None = None, **drive) -> dict:
     """Forward or inverse answer for a coil on a ferrite rod.
 
     Parameters
     ----------
     form : RodCoil or ScaledForm of one
         The rod coil, calibrated (a :class:`~coilplan.calibrate.ScaledForm`) or not.
-    calibration : ScaleFit, optional
-        The fit that produced the scale factor, for its residuals.
+    measured : Measured, optional
+        Readings of the coil as it is: the fit that produced the scale factor, and the
+        turns to add or remove.
 
     Returns
     -------
@@ -177,7 +181,7 @@ def rod_result(form, *, turns: int | None = None, target: float | None = None, t
         ``length_m`` (winding, end to end), ``pitch_m``, ``diameter_m`` (to wire
         centres), winding and flux-density fields, and the inverse's neighbours.
     """
-    result = turns_block(form, turns=turns, target=target)
+    result = turns_block(form, turns=turns, target=target, measured=measured)
     chosen = result["turns"]
     factor = getattr(form, "factor", 1.0)
     result.update(
@@ -187,7 +191,7 @@ def rod_result(form, *, turns: int | None = None, target: float | None = None, t
         rod_permeability=form.rod_permeability(),
         air_inductance_H=float(form.air_inductance(chosen)),
         model_factor=factor,
-        calibrated=calibration is not None,
+        calibrated=measured is not None,
         coil_length_m=float(form.sheet_length(chosen)),
         length_m=float(form.winding_length(chosen)),
         pitch_m=float(form.pitch_at(chosen)),
@@ -197,6 +201,6 @@ def rod_result(form, *, turns: int | None = None, target: float | None = None, t
         **_winding_fields(form, chosen, temperature_C),
         **drive_fields(form, chosen, **drive),
     )
-    if calibration is not None:
-        result["measured_residuals"] = list(calibration.residuals)
+    if measured is not None:
+        result["measured_residuals"] = list(measured.fit.residuals)
     return result

@@ -6,13 +6,14 @@ import math
 
 from coilplan.forms import SOLENOID_METHODS, Solenoid
 from coilplan.physics.solenoid import nagaoka_coefficient
-from coilplan.results._common import turns_block
+from coilplan.results._common import Measured, turns_block
 
 __all__ = ["solenoid_result"]
 
 
 def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float | None = None,
-                    temperature_C: float = 20.0, former_diameter: float | None = None) -> dict:
+                    temperature_C: float = 20.0, former_diameter: float | None = None,
+                    measured: Measured | None = None) -> dict:
     """Forward (``turns``) or inverse (``target``) answer for a single-layer solenoid.
 
     Parameters
@@ -27,6 +28,9 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
         Temperature for the second DC resistance figure, °C.
     former_diameter : float, optional
         The former's outside diameter, m, when the user gave it (reported only).
+    measured : Measured, optional
+        Readings of the coil as it is (``form`` then is the calibrated model): the answer
+        is the turns to add or remove.
 
     Returns
     -------
@@ -46,7 +50,7 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
     """
     if (turns is None) == (target is None):
         raise ValueError("give exactly one of turns and target")
-    result = turns_block(form, turns=turns, target=target)
+    result = turns_block(form, turns=turns, target=target, measured=measured)
     chosen = result["turns"]
     form.validity_warnings(chosen)
     sheet = float(form.sheet_length(chosen))
@@ -66,6 +70,7 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
         temperature_C=float(temperature_C),
         dc_resistance_at_temperature_ohm=float(form.resistance(chosen, temperature_C)),
         method=form.method,
+        model_factor=getattr(form, "factor", 1.0),
         method_note=SOLENOID_METHODS[form.method][0],
         method_accuracy=SOLENOID_METHODS[form.method][1],
         wire={

@@ -1,0 +1,59 @@
+"""Readings on the coil in hand, for every form command: options, conditions and calibration."""
+
+from __future__ import annotations
+
+import functools
+
+import click
+
+from coilplan.calibrate import ScaledForm
+from coilplan.cli._types import PercentType, QuantityType
+from coilplan.errors import InvalidInputError
+from coilplan.results._common import Measured
+from coilplan.rewind import DEFAULT_TOLERANCE, Conditions, closed_core_fit, low_frequency_readings, model_fit
+
+__all__ = ["calibrate_form", "conditions_from", "measurement_options"]
+
+
+def measurement_options(function):
+    """--meter-freq, --tolerance, --self-capacitance, --turns-uncertainty (with --measured and --at)."""
+    options = [
+        click.option("--meter-freq", type=QuantityType("Hz"), help="The meter's test frequency."),
+        click.option("--tolerance", type=PercentType(),
+                     help=f"Meter accuracy per reading, e.g. 2% (assumed {DEFAULT_TOLERANCE:.0%} if not given)."),
+        click.option("--self-capacitance", type=QuantityType("F"),
+                     help="The coil's self-capacitance, to correct readings and target for frequency."),
+        click.option("--turns-uncertainty", type=click.FloatRange(min=0.0), default=0.0,
+                     help="± turns on the counts of the readings, if not counted exactly."),
+    ]
+    return functools.reduce(lambda wrapped, option: option(wrapped), reversed(options), function)
+
+
+def conditions_from(*, tolerance, meter_freq, at, self_capacitance, turns_uncertainty) -> Conditions:
+    """The measurement conditions, checked against each other."""
+    if self_capacitance is not None and meter_freq is None and at is None:
+        raise InvalidInputError("--self-capacitance", "--meter-freq and/or --at to go with it", None)
+    return Conditions(tolerance=DEFAULT_TOLERANCE if tolerance is None else tolerance,
+                      tolerance_assumed=tolerance is None, meter_frequency=meter_freq, operating_frequency=at,
+                      self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
+
+
+def calibrate_form(build, readings, conditions: Conditions, kind: str):
+    """(calibrated form, Measured or None).
+
+    ``build(al)`` makes the form; ``al`` is None for the uncalibrated model. ``kind``
+    "al": a closed core whose AL comes from the readings; "scale": a model (air coil,
+    rod) whose level is scaled to them.
+    """
+    if not readings:
+        return build(None), None
+    readings = list(readings)
+    low = low_frequency_readings(readings, conditions)
+    if kind == "al":
+        fit = closed_core_fit(low)
+        calibrated = build(fit.value)
+    else:
+        form = build(None)
+        fit = model_fit(form, low)
+        calibrated = ScaledForm(form, fit.value)
+    return calibrated, Measured(readings, fit, conditions)

@@ -1,0 +1,55 @@
+"""``coilplan rewind``: turns to add or remove on a measured closed-core coil, geometry unknown."""
+
+from __future__ import annotations
+
+import click
+
+from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._cored import MeasurementType
+from coilplan.cli._measured import conditions_from, measurement_options
+from coilplan.cli._types import QuantityType
+from coilplan.forms import ClosedCore
+from coilplan.report.rewind_text import rewind_lines
+from coilplan.results._common import Measured, turns_block
+from coilplan.rewind import closed_core_fit, low_frequency_readings
+from coilplan.wire import parse_wire
+
+__all__ = ["rewind"]
+
+
+@click.command()
+@click.option("--measured", "measured", type=MeasurementType(), multiple=True, required=True,
+              help="A reading L@N, e.g. 120uH@36 (repeatable; the last is the coil as it is now).")
+@click.option("--target", type=QuantityType("H"), required=True, help="Inductance wanted (as read at --at).")
+@click.option("--offset", is_flag=True, help="Fit a fixed series inductance for the leads (two readings or more).")
+@click.option("--turn-length", type=QuantityType("m"), help="Mean length of one turn, for the wire to add or remove.")
+@click.option("--wire", "wire_text", help="The wire (for the resistance change), e.g. 0.5mm or 26swg.")
+@click.option("--at", "frequency", type=QuantityType("Hz"), help="Operating frequency (with --self-capacitance).")
+@measurement_options
+@json_option
+def rewind(measured, target, offset, turn_length, wire_text, frequency, meter_freq, tolerance, self_capacitance,
+           turns_uncertainty, as_json):
+    """A coil on a closed core (toroid, pot core, gapped choke): L = AL·N², from readings alone.
+
+    For a coil whose geometry matters (an air coil, a rod) give the readings to its own
+    command (solenoid, rod) with --measured: there the winding's length is accounted for.
+    """
+    conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
+                                 self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
+    wire = parse_wire(wire_text, option="--wire") if wire_text else None
+    with captured_warnings() as warnings_:
+        readings = list(measured)
+        fit = closed_core_fit(low_frequency_readings(readings, conditions), offset=offset)
+        form = ClosedCore(al=fit.value, offset=fit.extra.get("offset_H", 0.0), turn_length=turn_length, wire=wire)
+        result = turns_block(form, turns=None, target=target, measured=Measured(readings, fit, conditions))
+        result["al_H"] = fit.value
+        result["offset_H"] = form.offset
+        if wire is not None and turn_length is not None:
+            result["resistance_change_ohm"] = float(form.resistance(result["turns"]) - form.resistance(
+                result["turns_now"]))
+    inputs = {"measured": [{"inductance_H": v, "turns": n} for v, n in measured], "target_H": target,
+              "offset": offset, "turn_length_m": turn_length, "wire": wire_text, "frequency_Hz": frequency,
+              "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance,
+              "turns_uncertainty": turns_uncertainty}
+    emit(command="rewind", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
+         result=result, warnings_=warnings_, cautions=[], render=rewind_lines)
