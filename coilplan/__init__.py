@@ -16,10 +16,11 @@ from coilplan.errors import (
     OutsideValidityWarning,
     SolverError,
 )
-from coilplan.forms import SOLENOID_METHODS, CoilForm, GappedCore, Solenoid, Toroid
+from coilplan.forms import SOLENOID_METHODS, ClosedCore, CoilForm, GappedCore, RodCoil, Solenoid, Toroid
 from coilplan.materials import Material, all_materials, material, materials_for_permeability
 from coilplan.quantities import format_length, format_quantity, parse_quantity
-from coilplan.results import gapped_result, solenoid_result, toroid_result
+from coilplan.results import gapped_result, rod_result, solenoid_result, toroid_result
+from coilplan.rewind import Conditions, Fit, closed_core_fit, model_fit, rewind_fields
 from coilplan.saturation import SaturationCheck, saturation_check
 from coilplan.solve import TurnsSolution, solve_turns
 from coilplan.wire import Wire, awg_diameter, copper_resistivity, parse_wire
@@ -28,14 +29,18 @@ __version__ = "0.1.0"
 
 __all__ = [
     "AlFit",
+    "ClosedCore",
     "CoilForm",
     "CoilplanError",
+    "Conditions",
     "DataFileError",
+    "Fit",
     "GappedCore",
     "InfeasibleError",
     "InvalidInputError",
     "Material",
     "OutsideValidityWarning",
+    "RodCoil",
     "SOLENOID_METHODS",
     "SaturationCheck",
     "Solenoid",
@@ -45,6 +50,7 @@ __all__ = [
     "Wire",
     "all_materials",
     "awg_diameter",
+    "closed_core_fit",
     "copper_resistivity",
     "design_choke",
     "fit_al",
@@ -53,8 +59,11 @@ __all__ = [
     "gapped_result",
     "material",
     "materials_for_permeability",
+    "model_fit",
     "parse_quantity",
     "parse_wire",
+    "rewind_fields",
+    "rod_result",
     "saturation_check",
     "solenoid_result",
     "solve_turns",

@@ -189,7 +189,7 @@ def _uncertainty(form, fit: Fit, conditions: Conditions, readings) -> float:
     parts = [conditions.tolerance, fit.scatter]
     if conditions.turns_uncertainty:
         # a reading at N ± δ turns: the model's relative change there is the calibration's doubt
-        value, turns = list(readings)[-1]
+        turns = list(readings)[-1][1]
         base = float(form.inductance(turns))
         shifted = float(form.inductance(turns + conditions.turns_uncertainty))
         parts.append(abs(shifted / base - 1.0))
@@ -228,8 +228,10 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
     uncertainty = _uncertainty(form, fit, conditions, readings)
     ends = []
     for side in (1.0 - uncertainty, 1.0 + uncertainty):
-        try:  # a coil whose L reads high by u needs fewer turns: the band's ends solve the other way
-            ends.append(float(solve_turns(form, low_target / side).turns_exact))
+        # a reading = true·(1 + e), |e| <= u: the model may sit high or low by that much, so the
+        # true target is met where model(N) = target·(1 + e)
+        try:
+            ends.append(float(solve_turns(form, low_target * side).turns_exact))
         except InfeasibleError:
             ends.append(math.nan)
     low_end, high_end = sorted(ends, key=lambda v: (math.isnan(v), v))

@@ -26,7 +26,16 @@ from coilplan.forms.rod import RodCoil
 from coilplan.forms.solenoid import SOLENOID_METHODS, Solenoid, SolenoidMethod
 from coilplan.forms.toroid import Toroid
 
-__all__ = ["SOLENOID_METHODS", "ClosedCore", "CoilForm", "GappedCore", "RodCoil", "Solenoid", "SolenoidMethod", "Toroid"]
+__all__ = [
+    "SOLENOID_METHODS",
+    "ClosedCore",
+    "CoilForm",
+    "GappedCore",
+    "RodCoil",
+    "Solenoid",
+    "SolenoidMethod",
+    "Toroid",
+]
 
 
 class CoilForm(Protocol):

@@ -42,10 +42,8 @@ def _change(step: int) -> str:
 def rewind_rows(result: dict) -> list[tuple[str, ...]]:
     """The answer rows for a measured coil: now, the change, the range, the words and the plan."""
     low, high = result["turns_range"]
-    if low is None or high is None:
-        span = "n/a"
-    else:
-        span = f"{low} turns" if low == high else f"{low} to {high} turns"
+    span = ("n/a" if low is None or high is None
+            else f"{low} turns" if low == high else f"{low} to {high} turns")
     basis = f"±{result['uncertainty']:.1%} on the calibrated model"
     if result["tolerance_assumed"]:
         basis += " (meter tolerance assumed)"
