@@ -31,6 +31,7 @@ __all__ = [
     "parse_count",
     "parse_measurement",
     "parse_quantity",
+    "parse_relative",
     "parse_temperature",
 ]
 
@@ -249,6 +250,39 @@ def parse_measurement(text: str, option: str = "--measured") -> tuple[float, int
     except InvalidInputError as error:
         raise InvalidInputError(option, f"{expected} ({error.expected})", text) from None
     return inductance, turns
+
+
+_NUMBER_AND_UNIT = re.compile(r"^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(%|ppm)$", re.IGNORECASE)
+_RELATIVE_EXPECTED = "a relative tolerance such as 1%, 0.5 % or 10000ppm"
+_MAX_RELATIVE = 0.5
+
+
+def parse_relative(text: str, option: str = "--tolerance") -> float:
+    """Read a relative tolerance in percent or ppm, returned as a fraction.
+
+    Raises
+    ------
+    InvalidInputError
+        A bare number (the % or ppm is missing), a decimal comma, or a value not above 0 and below 50 %.
+
+    Examples
+    --------
+    >>> parse_relative("1%"), parse_relative("0.5 %"), parse_relative("10000ppm")
+    (0.01, 0.005, 0.01)
+    """
+    stripped = str(text).strip()
+    if "," in stripped:
+        raise InvalidInputError(option, _RELATIVE_EXPECTED + " (write the decimal point as '.', not ',')", text)
+    match = _NUMBER_AND_UNIT.match(stripped)
+    if match is None:
+        bare = re.fullmatch(r"[+-]?[\d.eE+-]+", stripped)
+        why = "the % or ppm is missing" if bare else "it must be a number and % or ppm"
+        raise InvalidInputError(option, f"{_RELATIVE_EXPECTED} ({why})", text)
+    scale = 1e-2 if match.group(2) == "%" else 1e-6
+    value = float(match.group(1)) * scale
+    if not 0 < value < _MAX_RELATIVE:
+        raise InvalidInputError(option, f"{_RELATIVE_EXPECTED}, above 0 % and below {_MAX_RELATIVE:.0%}", text)
+    return value
 
 
 def parse_temperature(text: str, option: str = "--temperature") -> float:

@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from coilplan.errors import InvalidInputError
-from coilplan.quantities import parse_count, parse_quantity, parse_temperature
+from coilplan.quantities import parse_count, parse_quantity, parse_relative, parse_temperature
 
 __all__ = ["CountType", "PercentType", "QuantityType", "TemperatureType"]
 
@@ -78,21 +78,7 @@ class PercentType(click.ParamType):
     def convert(self, value, param, ctx):
         if isinstance(value, float):
             return value
-        text = str(value).strip().lower()
-        expected = "a tolerance such as 2% or 500ppm"
-        scale = None
-        for suffix, factor in (("%", 1e-2), ("ppm", 1e-6)):
-            if text.endswith(suffix):
-                text, scale = text[: -len(suffix)].strip(), factor
-                break
-        if "," in text:
-            self.fail(f"expected {expected} (write the decimal point as '.'); got {value!r}", param, ctx)
-        if scale is None:
-            self.fail(f"expected {expected} (the % or ppm is missing); got {value!r}", param, ctx)
         try:
-            number = float(text)
-        except ValueError:
-            self.fail(f"expected {expected}; got {value!r}", param, ctx)
-        if not (0 < number * scale < 1):
-            self.fail(f"expected {expected}, above zero and below 100 %; got {value!r}", param, ctx)
-        return number * scale
+            return parse_relative(value)
+        except InvalidInputError as error:
+            self.fail(_message(error), param, ctx)

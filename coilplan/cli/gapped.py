@@ -6,8 +6,8 @@ import click
 
 from coilplan.choke import design_choke
 from coilplan.cli._common import captured_warnings, emit, json_option
-from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import GappedCore

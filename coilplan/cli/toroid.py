@@ -5,8 +5,8 @@ from __future__ import annotations
 import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
-from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
 from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
 from coilplan.forms import Toroid

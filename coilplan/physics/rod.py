@@ -76,7 +76,6 @@ from typing import Literal
 
 import numpy as np
 from scipy.constants import mu_0
-from scipy.linalg import solve_toeplitz
 
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.physics.loops import coaxial_mutual_inductance
@@ -202,6 +201,8 @@ def _solve(column, chi, rhs):
         a, b = 1.0 / chi, 1.0  # (I/χ + D) M = rhs; χ = inf gives a = 0
     c = b * np.asarray(column)
     c[0] += a
+    from scipy.linalg import solve_toeplitz  # imported here: scipy.linalg costs start-up time for every command
+
     return solve_toeplitz(c, rhs)
 
 
