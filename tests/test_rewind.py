@@ -171,3 +171,19 @@ def test_scale_fit_is_weighted_least_squares():
     values = np.array([v for v, _ in readings])
     expected = np.linalg.lstsq((model / values)[:, None], np.ones(3), rcond=None)[0][0]
     assert model_fit(form, readings).value == pytest.approx(expected, rel=1e-12)
+
+
+def test_negative_lead_offset_is_dropped_with_a_note():
+    """Leads add inductance in series: a fitted L0 < 0 is scatter, so the plain N² law is used and said."""
+    document = run_json("rewind", "--measured", "160uH@34", "--measured", "131uH@31", "--offset",
+                        "--target", "100uH")
+    result = document["result"]
+    assert result["offset_H"] == 0.0
+    assert any("below zero" in note for note in result["notices"])
+    assert result["inductance_H"] > 0
+
+
+def test_bare_command_prints_help():
+    """`coilplan` alone shows the help (exit 0), not a one-line error."""
+    result = CliRunner().invoke(main, [])
+    assert result.exit_code == 0 and "Commands:" in result.stdout

@@ -55,6 +55,9 @@ class _CoilplanGroup(click.Group):
         try:
             code = super().main(args=args, prog_name=prog_name or "coilplan",
                                 complete_var=complete_var, standalone_mode=False, **extra)
+        except click.exceptions.NoArgsIsHelpError as error:  # bare `coilplan`: the help, as asked
+            click.echo(error.ctx.get_help() if error.ctx else error.format_message())
+            code = 0
         except click.BadParameter as error:
             code = _fail(_bad_parameter_text(error), 2)
         except click.UsageError as error:

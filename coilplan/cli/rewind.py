@@ -2,16 +2,17 @@
 
 from __future__ import annotations
 
+import warnings
+
 import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import MeasurementType
 from coilplan.cli._measured import conditions_from, measurement_options
 from coilplan.cli._types import QuantityType
-from coilplan.forms import ClosedCore
+from coilplan.errors import MeasurementWarning
 from coilplan.report.rewind_text import rewind_lines
-from coilplan.results._common import Measured, turns_block
-from coilplan.rewind import closed_core_fit, low_frequency_readings
+from coilplan.rewind import closed_core_answer
 from coilplan.wire import parse_wire
 
 __all__ = ["rewind"]
@@ -38,15 +39,11 @@ def rewind(measured, target, offset, turn_length, wire_text, frequency, meter_fr
                                  self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
     wire = parse_wire(wire_text, option="--wire") if wire_text else None
     with captured_warnings() as warnings_:
-        readings = list(measured)
-        fit = closed_core_fit(low_frequency_readings(readings, conditions), offset=offset)
-        form = ClosedCore(al=fit.value, offset=fit.extra.get("offset_H", 0.0), turn_length=turn_length, wire=wire)
-        result = turns_block(form, turns=None, target=target, measured=Measured(readings, fit, conditions))
-        result["al_H"] = fit.value
-        result["offset_H"] = form.offset
-        if wire is not None and turn_length is not None:
-            result["resistance_change_ohm"] = float(form.resistance(result["turns"]) - form.resistance(
-                result["turns_now"]))
+        answer = closed_core_answer(list(measured), target, conditions, offset=offset, turn_length=turn_length,
+                                    wire=wire)
+        for text in answer.warnings:
+            warnings.warn(text, MeasurementWarning, stacklevel=1)
+        result = {**answer.fields, "notices": list(answer.notices)}
     inputs = {"measured": [{"inductance_H": v, "turns": n} for v, n in measured], "target_H": target,
               "offset": offset, "turn_length_m": turn_length, "wire": wire_text, "frequency_Hz": frequency,
               "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance,

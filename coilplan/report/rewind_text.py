@@ -18,6 +18,8 @@ def rewind_lines(result: dict) -> list[str]:
     for reading, residual in zip(result["readings"], result["residuals"], strict=True):
         rows.append(("reading", f"{henry(reading['inductance_H'])} at {reading['turns']} turns",
                      f"{residual:+.2%} off the fit"))
+    for notice in result.get("notices", []):
+        rows.append(("note", notice))
     if "resistance_change_ohm" in result:
         rows.append(("resistance change", format_quantity(result["resistance_change_ohm"], "ohm", 3)))
     title = f"Measured coil on a closed core, to {henry(result['target_H'])}"

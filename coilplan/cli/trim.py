@@ -1,0 +1,234 @@
+"""``coilplan trim start | add | show``: the measurement log of one coil being trimmed toward its target."""
+
+from __future__ import annotations
+
+import contextlib
+from pathlib import Path
+
+import click
+
+from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._cored import MeasurementType
+from coilplan.cli._measured import conditions_from
+from coilplan.cli._types import PercentType, QuantityType
+from coilplan.quantities import format_quantity
+from coilplan.report.text import aligned_rows, bullet_lines
+from coilplan.report.turns_rows import henry, rewind_rows
+from coilplan.rewind import DEFAULT_TOLERANCE, low_frequency_readings
+from coilplan.session import (
+    LogWriteError,
+    TrimLog,
+    TrimStep,
+    add_reading,
+    conditions_of,
+    evaluate,
+    load_log,
+    new_log,
+    save_log,
+    start_log,
+    write_atomically,
+)
+from coilplan.wire import parse_wire
+
+__all__ = ["trim"]
+
+LOG_FILE = click.Path(dir_okay=False, path_type=Path)
+
+
+def _plot_path(ctx, param, value):
+    """Check the --plot file's ending before anything is read or written."""
+    if value is None:
+        return None
+    from coilplan.report.plot import plot_format
+
+    plot_format(value)
+    return value
+
+
+plot_option = click.option("--plot", "plot_path", type=LOG_FILE, callback=_plot_path,
+                           help="Also draw L against N to this file (.png, .svg or .pdf).")
+
+
+@contextlib.contextmanager
+def _write_errors():
+    """A file that cannot be written: one line and exit status 1 (the old file is kept)."""
+    try:
+        yield
+    except LogWriteError as error:
+        raise click.ClickException(str(error)) from None
+
+
+@click.group(invoke_without_command=True)
+@click.pass_context
+def trim(ctx: click.Context) -> None:
+    """The measurement log of one coil being trimmed toward its target (one JSON file per coil).
+
+    Start the log with the target, then after each change of turns give the new reading
+    with `add`: every reading refits L = AL·N² (a closed core) and prints the next step.
+    """
+    if ctx.invoked_subcommand is None:
+        click.echo(ctx.get_help())
+
+
+@trim.command()
+@click.argument("file", type=LOG_FILE)
+@click.option("--target", type=QuantityType("H"), required=True, help="Inductance wanted (as read at --at).")
+@click.option("--at", "frequency", type=QuantityType("Hz"), help="Operating frequency (with --self-capacitance).")
+@click.option("--meter-freq", type=QuantityType("Hz"), help="The meter's test frequency.")
+@click.option("--tolerance", type=PercentType(),
+              help=f"Meter accuracy per reading, e.g. 2% (assumed {DEFAULT_TOLERANCE:.0%} if not given).")
+@click.option("--self-capacitance", type=QuantityType("F"),
+              help="The coil's self-capacitance, to correct for frequency.")
+@click.option("--offset", is_flag=True, help="Fit a fixed series inductance for the leads (from the second reading).")
+@click.option("--turn-length", type=QuantityType("m"), help="Mean length of one turn, for the wire to add or remove.")
+@click.option("--wire", "wire_text", help="The wire (for the resistance change), e.g. 0.5mm or 26swg.")
+@click.option("--name", help="A name for the coil, shown in the reports.")
+@click.option("--measured", "measured", type=MeasurementType(), multiple=True,
+              help="Readings already taken, L@N (repeatable; the last is the coil as it is now).")
+@click.option("--force", is_flag=True, help="Replace a file already at FILE.")
+@plot_option
+@json_option
+def start(file, target, frequency, meter_freq, tolerance, self_capacitance, offset, turn_length, wire_text, name,
+          measured, force, plot_path, as_json):
+    """Start the log FILE for one coil: the target and how the readings are taken."""
+    conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency, self_capacitance=self_capacitance,
+                    turns_uncertainty=0.0)
+    if wire_text is not None:
+        parse_wire(wire_text, option="--wire")
+    log = new_log(target, name=name, offset=offset, turn_length=turn_length, wire=wire_text,
+                  operating_frequency=frequency, meter_frequency=meter_freq, tolerance=tolerance,
+                  self_capacitance=self_capacitance)
+    for value, turns in measured:
+        log = add_reading(log, value, turns)
+    inputs = {"file": str(file), "target_H": target, "frequency_Hz": frequency, "meter_frequency_Hz": meter_freq,
+              "tolerance": tolerance, "self_capacitance_F": self_capacitance, "offset": offset,
+              "turn_length_m": turn_length, "wire": wire_text, "name": name,
+              "measured": [{"inductance_H": v, "turns": n} for v, n in measured], "force": force}
+    if plot_path is not None and not measured:
+        raise click.BadParameter("needs at least one reading to draw: give --measured L@N", param_hint="--plot")
+    with captured_warnings() as warnings_:
+        step = evaluate(log) if log.readings else None
+        picture = _picture(plot_path, file, log, step)
+        with _write_errors():
+            start_log(file, log, force=force)
+        _write_plot(plot_path, picture, file)
+    _report("trim", file, log, step, inputs, warnings_, as_json, plot_path, started=True)
+
+
+@trim.command()
+@click.argument("file", type=LOG_FILE)
+@click.option("--measured", "measured", type=MeasurementType(), required=True,
+              help="The coil as it is now, L@N, e.g. 96uH@27.")
+@click.option("--note", help="A note kept with the reading (what was done, the meter used).")
+@plot_option
+@json_option
+def add(file, measured, note, plot_path, as_json):
+    """Add a reading to the log FILE, refit and print the next step."""
+    value, turns = measured
+    log = add_reading(load_log(file), value, turns, note=note)
+    inputs = {"file": str(file), "measured": {"inductance_H": value, "turns": turns}, "note": note}
+    with captured_warnings() as warnings_:
+        step = evaluate(log)  # a refit that fails leaves the file as it was
+        picture = _picture(plot_path, file, log, step)
+        with _write_errors():
+            save_log(file, log)
+        _write_plot(plot_path, picture, file)
+    _report("trim", file, log, step, inputs, warnings_, as_json, plot_path)
+
+
+@trim.command()
+@click.argument("file", type=LOG_FILE)
+@plot_option
+@json_option
+def show(file, plot_path, as_json):
+    """Print the state of the log FILE: the readings, the fit and the next step (FILE is not changed)."""
+    log = load_log(file)
+    if plot_path is not None and not log.readings:
+        raise click.BadParameter("needs at least one reading in the log to draw", param_hint="--plot")
+    with captured_warnings() as warnings_:
+        step = evaluate(log) if log.readings else None
+        picture = _picture(plot_path, file, log, step)
+        _write_plot(plot_path, picture, file, saved=False)
+    _report("trim", file, log, step, {"file": str(file)}, warnings_, as_json, plot_path)
+
+
+def _picture(plot_path, file, log: TrimLog, step: TrimStep | None) -> bytes | None:
+    """The plot's bytes (drawn before anything is saved, so a missing matplotlib changes no file)."""
+    if plot_path is None or step is None:
+        return None
+    from coilplan.report.plot import plot_format, trim_plot
+
+    fields = step.fields
+    readings = [(reading.inductance_H, reading.turns) for reading in log.readings]
+    conditions = conditions_of(log)
+    corrected = conditions.self_capacitance is not None and conditions.meter_frequency is not None
+    return trim_plot(readings=low_frequency_readings(readings, conditions), al=fields["al_H"],
+                     offset=fields["offset_H"], target=fields["target_low_frequency_H"], tolerance=log.tolerance,
+                     turns=fields["turns"], inductance=fields["inductance_H"], fmt=plot_format(plot_path),
+                     title=f"{log.coil.name or Path(file).name}: trimming toward {henry(log.target_H)}",
+                     low_frequency=corrected or fields["target_low_frequency_H"] != log.target_H)
+
+
+def _write_plot(plot_path, picture: bytes | None, file, saved: bool = True) -> None:
+    if plot_path is None or picture is None:
+        return
+    try:
+        write_atomically(plot_path, picture)
+    except LogWriteError as error:
+        kept = f"; the log {file} was saved" if saved else ""
+        raise click.ClickException(f"--plot {error}{kept}") from None
+
+
+def _result(file, log: TrimLog, step: TrimStep | None, plot_path) -> dict:
+    result = dict(step.fields) if step is not None else {"target_H": log.target_H, "tolerance": log.tolerance,
+                                                         "tolerance_assumed": log.tolerance_assumed}
+    residuals = step.fields["residuals"] if step is not None else [None] * len(log.readings)
+    result["readings"] = [{"inductance_H": reading.inductance_H, "turns": reading.turns,
+                           "time": reading.time.isoformat(), "note": reading.note, "residual": residual}
+                          for reading, residual in zip(log.readings, residuals, strict=True)]
+    result["notices"] = list(step.notices) if step is not None else []
+    result["file"] = str(file)
+    result["coil"] = log.coil.model_dump(mode="json")
+    if plot_path is not None and step is not None:
+        result["plot"] = str(plot_path)
+    return result
+
+
+def _report(command, file, log, step, inputs, warnings_, as_json, plot_path, started=False) -> None:
+    if step is not None:
+        warnings_ = [*step.warnings, *(text for text in warnings_ if text not in step.warnings)]
+    result = _result(file, log, step, plot_path)
+    emit(command=command, as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
+         result=result, warnings_=warnings_, cautions=[],
+         render=lambda fields: _lines(fields, log, started))
+
+
+def _lines(result: dict, log: TrimLog, started: bool) -> list[str]:
+    """The text report: the answer rows, the fitted law, the readings with residuals, the notices."""
+    who = f"{log.coil.name} ({result['file']})" if log.coil.name else result["file"]
+    assumed = " (assumed)" if log.tolerance_assumed else ""
+    title = f"Trim log {who}: closed core, to {henry(log.target_H)}"
+    head = [title, ""]
+    if "turns_now" not in result:
+        what = "started" if started else "no readings yet"
+        return [*head, *aligned_rows([
+            ("log", what, f"meter tolerance ±{log.tolerance:.1%}{assumed}"),
+            ("next", f"measure the coil, then: coilplan trim add {result['file']} --measured L@N"),
+        ])]
+    rows = rewind_rows(result)
+    rows.append(("AL value", f"{format_quantity(result['al_H'], 'H', 4)} per turn²", "fitted, L = AL·N²"))
+    if result["offset_H"]:
+        rows.append(("leads", henry(result["offset_H"]), "fitted series part, L = AL·N² + L0"))
+    if "resistance_change_ohm" in result:
+        rows.append(("resistance change", format_quantity(result["resistance_change_ohm"], "ohm", 3)))
+    for number, reading in enumerate(result["readings"], start=1):
+        when = reading["time"].replace("T", " ")[:16]
+        extra = f"{reading['residual']:+.2%} off the fit, {when}"
+        if reading["note"]:
+            extra += f", {reading['note']}"
+        rows.append((f"reading {number}", f"{henry(reading['inductance_H'])} at {reading['turns']} turns", extra))
+    lines = [*head, *aligned_rows(rows)]
+    notices = bullet_lines("notices", result["notices"])
+    if "plot" in result:
+        lines.append(f"  plot written to {result['plot']}")
+    return [*lines, *(["", *notices] if notices else [])]

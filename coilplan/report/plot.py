@@ -1,0 +1,109 @@
+r"""The trim plot: inductance against turns, with the fitted closed-core curve and the target band.
+
+Drawn with matplotlib's object API (a :class:`matplotlib.figure.Figure` on the Agg
+canvas, no pyplot), imported only inside :func:`trim_plot`, so that commands which do
+not plot never pay for the import. The file's bytes do not depend on the day: the SVG
+hash salt is fixed and the date metadata left out.
+"""
+
+from __future__ import annotations
+
+import io
+from collections.abc import Sequence
+from pathlib import Path
+
+import numpy as np
+
+from coilplan.errors import InvalidInputError
+
+__all__ = ["PLOT_FORMATS", "plot_format", "trim_plot"]
+
+#: File name endings the plot can be written as, and the matplotlib format for each.
+PLOT_FORMATS = {".png": "png", ".svg": "svg", ".pdf": "pdf"}
+#: Date-like metadata each format would otherwise stamp into the file.
+_NO_DATES = {"png": {"Software": None}, "svg": {"Date": None}, "pdf": {"CreationDate": None, "ModDate": None}}
+_SALT = "coilplan-trim-plot"
+
+
+def plot_format(path, option: str = "--plot") -> str:
+    """The format for a plot file from its name's ending (``.png``, ``.svg`` or ``.pdf``).
+
+    Examples
+    --------
+    >>> plot_format("coil.SVG")
+    'svg'
+    """
+    ending = Path(path).suffix.lower()
+    if ending not in PLOT_FORMATS:
+        raise InvalidInputError(option, "a file name ending in .png, .svg or .pdf", str(path))
+    return PLOT_FORMATS[ending]
+
+
+def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float, target: float, tolerance: float,
+              turns: int, inductance: float, fmt: str, title: str | None = None, low_frequency: bool = False) -> bytes:
+    r"""Draw L against N for a coil being trimmed, and return the file's bytes.
+
+    The calibrated curve :math:`L = A_L N^2 + L_0` spans the readings and the answer;
+    each reading carries an error bar of ± ``tolerance``; the band is
+    ``target`` ± ``tolerance``; a marker shows the recommended stop.
+
+    Parameters
+    ----------
+    readings : sequence of (float, int)
+        (H, turns), on the same footing as the curve (low-frequency when corrected).
+    al, offset : float
+        The fitted AL value, H per turn², and the leads' series part, H.
+    target : float
+        The inductance wanted, H (on the curve's footing).
+    tolerance : float
+        Meter accuracy, relative.
+    turns : int
+        The recommended number of turns; ``inductance`` is the curve's value there, H.
+    fmt : {"png", "svg", "pdf"}
+    title : str, optional
+    low_frequency : bool
+        True when the readings and target were corrected for self-capacitance: the axis says so.
+
+    Raises
+    ------
+    InvalidInputError
+        matplotlib is not installed (the hint names the ``plot`` extra).
+    """
+    try:
+        from matplotlib import rc_context
+        from matplotlib.backends.backend_agg import FigureCanvasAgg
+        from matplotlib.figure import Figure
+    except ImportError:
+        raise InvalidInputError("--plot", 'matplotlib, which is not installed: pip install "coilplan[plot]"',
+                                None) from None
+    if fmt not in _NO_DATES:
+        raise InvalidInputError("--plot", "a format png, svg or pdf", fmt)
+    counts = [count for _, count in readings] + [turns]
+    low, high = min(counts), max(counts)
+    margin = max(1.0, 0.08 * (high - low))
+    curve_turns = np.linspace(max(0.0, low - margin), high + margin, 200)
+    micro = 1e6
+
+    figure = Figure(figsize=(6.4, 4.2), layout="constrained")
+    FigureCanvasAgg(figure)
+    axes = figure.add_subplot()
+    axes.axhspan((target * (1 - tolerance)) * micro, (target * (1 + tolerance)) * micro, color="tab:green",
+                 alpha=0.18, label=f"target ± {tolerance:.1%}")
+    axes.axhline(target * micro, color="tab:green", linewidth=0.8)
+    curve_label = "fitted: L = AL·N² + L0" if offset else "fitted: L = AL·N²"
+    axes.plot(curve_turns, (al * curve_turns**2 + offset) * micro, color="tab:blue", label=curve_label)
+    values = np.array([value for value, _ in readings], dtype=float)
+    axes.errorbar([count for _, count in readings], values * micro, yerr=values * tolerance * micro, fmt="o",
+                  color="black", capsize=3, label="readings ± meter tolerance")
+    axes.plot([turns], [inductance * micro], marker="*", markersize=14, linestyle="none", color="tab:red",
+              label=f"stop at {turns} turns")
+    axes.set_xlabel("turns")
+    axes.set_ylabel("inductance at low frequency (µH)" if low_frequency else "inductance (µH)")
+    axes.grid(True, alpha=0.3)
+    axes.legend(loc="upper left", fontsize="small")
+    if title:
+        axes.set_title(title)
+    buffer = io.BytesIO()
+    with rc_context({"svg.hashsalt": _SALT, "svg.fonttype": "path"}):
+        figure.savefig(buffer, format=fmt, metadata=_NO_DATES[fmt])
+    return buffer.getvalue()
