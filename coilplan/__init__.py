@@ -2,78 +2,80 @@
 
 The library computes each coil form's inductance from published methods
 (``coilplan.physics``), wraps the geometry and wire in a form object
-(``coilplan.forms``) and solves the inverse problem, turns for a target
-(``coilplan.solve``). The ``coilplan`` command is a thin layer over these.
+(``coilplan.forms``), solves the inverse problem, turns for a target
+(``coilplan.solve``), and calibrates any form to readings of the coil in hand
+(``coilplan.rewind``). The ``coilplan`` command is a thin layer over these.
+
+The public names below are imported on first use, so the command line starts
+without loading the parts a command does not need.
 """
 
-from coilplan.calibrate import AlFit, fit_al
-from coilplan.choke import design_choke
-from coilplan.errors import (
-    CoilplanError,
-    DataFileError,
-    InfeasibleError,
-    InvalidInputError,
-    OutsideValidityWarning,
-    SolverError,
-)
-from coilplan.forms import SOLENOID_METHODS, ClosedCore, CoilForm, GappedCore, RodCoil, Solenoid, Toroid
-from coilplan.materials import Material, all_materials, material, materials_for_permeability
-from coilplan.quantities import format_length, format_quantity, parse_quantity
-from coilplan.results import gapped_result, rod_result, solenoid_result, toroid_result
-from coilplan.rewind import Conditions, Fit, closed_core_answer, closed_core_fit, model_fit, rewind_fields
-from coilplan.saturation import SaturationCheck, saturation_check
-from coilplan.session import TrimLog, load_log, record_reading, start_log
-from coilplan.solve import TurnsSolution, solve_turns
-from coilplan.turn_count import count_turns
-from coilplan.wire import Wire, awg_diameter, copper_resistivity, parse_wire
+import importlib
 
 __version__ = "0.1.0"
 
-__all__ = [
-    "AlFit",
-    "ClosedCore",
-    "CoilForm",
-    "CoilplanError",
-    "Conditions",
-    "DataFileError",
-    "Fit",
-    "GappedCore",
-    "InfeasibleError",
-    "InvalidInputError",
-    "Material",
-    "OutsideValidityWarning",
-    "RodCoil",
-    "SOLENOID_METHODS",
-    "SaturationCheck",
-    "Solenoid",
-    "SolverError",
-    "Toroid",
-    "TrimLog",
-    "TurnsSolution",
-    "Wire",
-    "all_materials",
-    "awg_diameter",
-    "closed_core_answer",
-    "closed_core_fit",
-    "copper_resistivity",
-    "count_turns",
-    "design_choke",
-    "fit_al",
-    "format_length",
-    "format_quantity",
-    "gapped_result",
-    "load_log",
-    "material",
-    "materials_for_permeability",
-    "model_fit",
-    "parse_quantity",
-    "parse_wire",
-    "record_reading",
-    "rewind_fields",
-    "rod_result",
-    "saturation_check",
-    "solenoid_result",
-    "solve_turns",
-    "start_log",
-    "toroid_result",
-]
+# public name -> the module that defines it
+_WHERE = {
+    "ClosedCore": "coilplan.forms",
+    "ClosedCoreAnswer": "coilplan.rewind",
+    "CoilForm": "coilplan.forms",
+    "CoilplanError": "coilplan.errors",
+    "CoilplanWarning": "coilplan.errors",
+    "Conditions": "coilplan.rewind",
+    "DataFileError": "coilplan.errors",
+    "Fit": "coilplan.rewind",
+    "GappedCore": "coilplan.forms",
+    "InfeasibleError": "coilplan.errors",
+    "InvalidInputError": "coilplan.errors",
+    "Material": "coilplan.materials",
+    "MeasurementWarning": "coilplan.errors",
+    "OutsideValidityWarning": "coilplan.errors",
+    "RodCoil": "coilplan.forms",
+    "SOLENOID_METHODS": "coilplan.forms",
+    "SaturationCheck": "coilplan.saturation",
+    "ScaledForm": "coilplan.calibrate",
+    "Solenoid": "coilplan.forms",
+    "SolverError": "coilplan.errors",
+    "Toroid": "coilplan.forms",
+    "TrimLog": "coilplan.session",
+    "TurnsSolution": "coilplan.solve",
+    "Wire": "coilplan.wire",
+    "all_materials": "coilplan.materials",
+    "awg_diameter": "coilplan.wire",
+    "closed_core_answer": "coilplan.rewind",
+    "closed_core_fit": "coilplan.rewind",
+    "copper_resistivity": "coilplan.wire",
+    "count_turns": "coilplan.turn_count",
+    "design_choke": "coilplan.choke",
+    "format_length": "coilplan.quantities",
+    "format_quantity": "coilplan.quantities",
+    "gapped_result": "coilplan.results",
+    "load_log": "coilplan.session",
+    "material": "coilplan.materials",
+    "materials_for_permeability": "coilplan.materials",
+    "model_fit": "coilplan.rewind",
+    "parse_quantity": "coilplan.quantities",
+    "parse_wire": "coilplan.wire",
+    "record_reading": "coilplan.session",
+    "rewind_fields": "coilplan.rewind",
+    "rod_result": "coilplan.results",
+    "saturation_check": "coilplan.saturation",
+    "solenoid_result": "coilplan.results",
+    "solve_turns": "coilplan.solve",
+    "start_log": "coilplan.session",
+    "toroid_result": "coilplan.results",
+}
+
+__all__ = sorted(_WHERE)
+
+
+def __getattr__(name):
+    if name in _WHERE:
+        value = getattr(importlib.import_module(_WHERE[name]), name)
+        globals()[name] = value  # later look-ups skip this function
+        return value
+    raise AttributeError(f"module 'coilplan' has no attribute {name!r}")
+
+
+def __dir__():
+    return sorted([*globals(), *__all__])

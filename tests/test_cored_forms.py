@@ -7,10 +7,10 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from coilplan.calibrate import fit_al
 from coilplan.choke import design_choke
 from coilplan.errors import InfeasibleError, InvalidInputError
 from coilplan.forms import GappedCore, Toroid
+from coilplan.rewind import closed_core_fit
 from coilplan.saturation import saturation_check
 from coilplan.solve import solve_turns
 from coilplan.wire import parse_wire
@@ -145,8 +145,8 @@ def test_al_fit_is_the_weighted_least_squares_solution():
     turns = np.array([r[1] for r in readings], dtype=float)
     design = (turns**2 / inductance)[:, None]
     expected = np.linalg.lstsq(design, np.ones(3), rcond=None)[0][0]
-    fit = fit_al(readings)
-    assert fit.al == pytest.approx(expected, rel=1e-12)
+    fit = closed_core_fit(readings)
+    assert fit.value == pytest.approx(expected, rel=1e-12)
     assert len(fit.residuals) == 3
     with pytest.raises(InvalidInputError):
-        fit_al([(1e-6, 10), (2e-6, 10)])
+        closed_core_fit([(1e-6, 10), (2e-6, 10)])
