@@ -22,6 +22,7 @@ turns is the solve at the target's two ends of that band.
 
 from __future__ import annotations
 
+import itertools
 import math
 from dataclasses import dataclass, field
 
@@ -164,6 +165,17 @@ def check_readings(readings) -> None:
                                 ", ".join(str(n) for n in counts))
 
 
+def _backwards(readings) -> list[str]:
+    """A warning when more turns read less inductance (by turn count, not by the order taken)."""
+    ordered = sorted(readings, key=lambda reading: reading[1])
+    for (low_value, low_turns), (high_value, high_turns) in itertools.pairwise(ordered):
+        if high_value <= low_value:
+            return [f"more turns read less: {format_quantity(high_value, 'H')} at {high_turns} turns against "
+                    f"{format_quantity(low_value, 'H')} at {low_turns} turns. Turns added in the opposite sense, "
+                    f"a shorted turn, a reading error, or {USUAL_CAUSES}: check before trimming by this answer"]
+    return []
+
+
 def _suspicious(fit: Fit, readings, conditions: Conditions) -> list[str]:
     """Warnings naming readings that do not follow the model, with the usual causes."""
     if len(fit.residuals) < 2:
@@ -268,6 +280,7 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
     fields["apparent_inductance_H"] = _apparent(solution.inductance, conditions)
     fields["explanation"] = _explanation(fields, readings, fit, solution)
     fields["plan"] = _plan(fields)
+    warnings_ += _backwards(readings)
     warnings_ += _suspicious(fit, readings, conditions)
     warnings_ += _srf_warnings(readings, chosen, form, conditions)
     if conditions.tolerance_assumed:
@@ -329,6 +342,10 @@ def _explanation(fields: dict, readings, fit: Fit, solution) -> str:
     return f"{start}; {target_text} needs {fields['turns_exact']:.1f} turns: {choices}"
 
 
+def _turns(count: int) -> str:
+    return f"{count} turn" if count == 1 else f"{count} turns"
+
+
 def _plan(fields: dict) -> list[str]:
     """Steps that approach the target from above when the answer is less certain than a turn."""
     now, chosen = fields["turns_now"], fields["turns"]
@@ -338,12 +355,12 @@ def _plan(fields: dict) -> list[str]:
         return ["no change: the coil is on target within a turn"]
     if not (math.isfinite(low_exact) and math.isfinite(high_exact)) or high_exact - low_exact <= 1.0:
         verb = "remove" if chosen < now else "add"
-        return [f"{verb} {abs(chosen - now)} turns, then measure to confirm"]
+        return [f"{verb} {_turns(abs(chosen - now))}, then measure to confirm"]
     safe = max(high, chosen)
     steps = []
     if safe != now:
         verb = "remove" if safe < now else "add"
-        steps.append(f"{verb} {abs(safe - now)} turns (to {safe}, the top of the range), then measure")
+        steps.append(f"{verb} {_turns(abs(safe - now))} (to {safe}, the top of the range), then measure")
     steps.append("give that reading with another --measured: the refit narrows the range; then remove "
                  "the rest (removing is easy, adding back means a splice)")
     return steps

@@ -48,7 +48,7 @@ def test_toroid_al_from_permeability_is_iec_60205():
     """AL = µ0·µr·Ae/le with the ring's effective parameters (IEC 60205)."""
     core = ring()
     parameters = core.effective_parameters()
-    assert core.al == pytest.approx(4e-7 * math.pi * 125 * parameters["ae"] / parameters["le"], rel=1e-9)
+    assert core.al == pytest.approx(4e-7 * math.pi * 125 * parameters["ae"] / parameters["le"], rel=1e-9, abs=0)
 
 
 def test_toroid_needs_a_core_and_a_hole_the_wire_passes():
@@ -68,7 +68,7 @@ def test_toroid_inverse_round_trip(target):
     if target < float(core.inductance(1)):
         return
     solution = solve_turns(core, target)
-    assert core.al * solution.turns_exact**2 == pytest.approx(target, rel=1e-9)
+    assert core.al * solution.turns_exact**2 == pytest.approx(target, rel=1e-9, abs=0)
 
 
 def test_gapped_wire_length_layer_by_layer():
@@ -90,14 +90,14 @@ def test_gap_for_al_without_fringing_is_the_closed_form():
     core = GappedCore(ae=50e-6, le=40e-3, wire=WIRE, gap=0.0, mu_r=2000, fringing=False)
     al = 200e-9
     expected = 4e-7 * math.pi * 50e-6 / al - 40e-3 / 2000
-    assert core.gap_for_al(al) == pytest.approx(expected, rel=1e-6)
+    assert core.gap_for_al(al) == pytest.approx(expected, rel=1e-6, abs=0)
 
 
 def test_design_choke_meets_flux_limit_and_inductance():
     """The designed choke stays under the flux limit at the peak current and gives the target."""
     core = GappedCore(ae=52e-6, le=57e-3, wire=WIRE, gap=0.0, mu_r=2300, window_width=10e-3, window_depth=6e-3)
     designed, turns = design_choke(core, 470e-6, 1.5, 0.3)
-    assert float(designed.inductance(turns)) == pytest.approx(470e-6, rel=1e-9)
+    assert float(designed.inductance(turns)) == pytest.approx(470e-6, rel=1e-9, abs=0)
     assert float(designed.flux_density(turns, 1.5)) <= 0.3
     assert 470e-6 * 1.5 / ((turns - 1) * 52e-6) > 0.3  # one turn fewer would need B above the limit
     with pytest.raises(InfeasibleError):
@@ -146,7 +146,7 @@ def test_al_fit_is_the_weighted_least_squares_solution():
     design = (turns**2 / inductance)[:, None]
     expected = np.linalg.lstsq(design, np.ones(3), rcond=None)[0][0]
     fit = closed_core_fit(readings)
-    assert fit.value == pytest.approx(expected, rel=1e-12)
+    assert fit.value == pytest.approx(expected, rel=1e-12, abs=0)
     assert len(fit.residuals) == 3
     with pytest.raises(InvalidInputError):
         closed_core_fit([(1e-6, 10), (2e-6, 10)])

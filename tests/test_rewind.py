@@ -35,7 +35,7 @@ def run_json(*args):
 def test_closed_core_twenty_turn_example():
     """A 20-turn test winding at 55 µH gives 27 turns for 100 µH (the N² law: 20·√(100/55) = 26.97; issue 4)."""
     result = run_json("rewind", "--measured", "55uH@20", "--target", "100uH")["result"]
-    assert result["turns_exact"] == pytest.approx(20 * math.sqrt(100 / 55), rel=1e-12)
+    assert result["turns_exact"] == pytest.approx(20 * math.sqrt(100 / 55), rel=1e-12, abs=0)
     assert result["turns"] == 27
     assert result["turns_change"] == 7
     assert result["al_H"] == pytest.approx(55e-6 / 400)
@@ -64,7 +64,7 @@ def test_air_coil_differs_from_square_root_scaling_as_nagaoka_says():
     target_sheet = mp.findroot(lambda n: ref.nagaoka(0.025 / (n * pitch)) * n / (
         ref.nagaoka(0.025 / (30 * pitch)) * 30) - 0.5, 20)
     fields, _ = rewind_fields(calibrated, 10e-6, [(20e-6, 30)], model_fit(sheet, [(20e-6, 30)]), Conditions())
-    assert fields["turns_exact"] == pytest.approx(float(target_sheet), rel=1e-9)
+    assert fields["turns_exact"] == pytest.approx(float(target_sheet), rel=1e-9, abs=0)
 
 
 @given(st.floats(min_value=1e-7, max_value=1e-2), st.floats(min_value=1e3, max_value=3e7),
@@ -75,8 +75,9 @@ def test_self_capacitance_correction_both_ways(inductance, frequency, capacitanc
     if omega2 * inductance * capacitance >= 0.9:
         return
     apparent = float(apparent_inductance(inductance, frequency, capacitance))
-    assert apparent == pytest.approx(inductance / (1 - omega2 * inductance * capacitance), rel=1e-12)
-    assert float(low_frequency_inductance(apparent, frequency, capacitance)) == pytest.approx(inductance, rel=1e-12)
+    assert apparent == pytest.approx(inductance / (1 - omega2 * inductance * capacitance), rel=1e-12, abs=0)
+    back = float(low_frequency_inductance(apparent, frequency, capacitance))
+    assert back == pytest.approx(inductance, rel=1e-12, abs=0)
 
 
 def test_references_apparent_inductance_value():
@@ -90,9 +91,9 @@ def test_target_at_frequency_shows_as_target():
                       "--self-capacitance", "8pF", "--meter-freq", "100kHz")["result"]
     al = float(low_frequency_inductance(120e-6, 1e5, 8e-12)) / 36**2
     low_target = 150e-6 / (1 + (2 * math.pi * 2e6) ** 2 * 150e-6 * 8e-12)
-    assert result["turns_exact"] == pytest.approx(math.sqrt(low_target / al), rel=1e-9)
+    assert result["turns_exact"] == pytest.approx(math.sqrt(low_target / al), rel=1e-9, abs=0)
     exact_apparent = float(apparent_inductance(al * result["turns_exact"] ** 2, 2e6, 8e-12))
-    assert exact_apparent == pytest.approx(150e-6, rel=1e-9)
+    assert exact_apparent == pytest.approx(150e-6, rel=1e-9, abs=0)
 
 
 def test_srf_warning_near_resonance():
@@ -124,8 +125,8 @@ def test_offset_fit_recovers_leads():
     al, lead = 80e-9, 0.3e-6
     readings = [(al * n * n + lead, n) for n in (5, 10, 20, 30)]
     fit = closed_core_fit(readings, offset=True)
-    assert fit.value == pytest.approx(al, rel=1e-10)
-    assert fit.extra["offset_H"] == pytest.approx(lead, rel=1e-8)
+    assert fit.value == pytest.approx(al, rel=1e-10, abs=0)
+    assert fit.extra["offset_H"] == pytest.approx(lead, rel=1e-8, abs=0)
     assert max(abs(r) for r in fit.residuals) < 1e-10
 
 
@@ -170,7 +171,7 @@ def test_scale_fit_is_weighted_least_squares():
     model = np.array([1e-9 * n * n for _, n in readings])
     values = np.array([v for v, _ in readings])
     expected = np.linalg.lstsq((model / values)[:, None], np.ones(3), rcond=None)[0][0]
-    assert model_fit(form, readings).value == pytest.approx(expected, rel=1e-12)
+    assert model_fit(form, readings).value == pytest.approx(expected, rel=1e-12, abs=0)
 
 
 def test_negative_lead_offset_is_dropped_with_a_note():
@@ -187,3 +188,9 @@ def test_bare_command_prints_help():
     """`coilplan` alone shows the help (exit 0), not a one-line error."""
     result = CliRunner().invoke(main, [])
     assert result.exit_code == 0 and "Commands:" in result.stdout
+
+
+def test_more_turns_reading_less_is_flagged():
+    """A closed core cannot lose inductance as turns are added (L = AL·N²): the answer warns."""
+    document = run_json("rewind", "--measured", "9uH@10", "--measured", "8uH@12", "--target", "20uH")
+    assert any("more turns read less" in text for text in document["warnings"])

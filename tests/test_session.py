@@ -52,9 +52,9 @@ def no_temporary_files(folder):
 def test_first_reading_follows_the_n_squared_law():
     """20 turns at 55 µH give AL = 137.5 nH and 27 turns for 100 µH (IEC 60205 AL = L/N²; issue 4 example)."""
     step = evaluate(log_with([(55e-6, 20)]))
-    assert step.fields["al_H"] == pytest.approx(55e-6 / 20**2, rel=1e-12)
+    assert step.fields["al_H"] == pytest.approx(55e-6 / 20**2, rel=1e-12, abs=0)
     # hand-worked: N = 20·√(100/55) = 26.968
-    assert step.fields["turns_exact"] == pytest.approx(20 * math.sqrt(100 / 55), rel=1e-9)
+    assert step.fields["turns_exact"] == pytest.approx(20 * math.sqrt(100 / 55), rel=1e-9, abs=0)
     assert step.fields["turns"] == 27
     assert step.fields["turns_change"] == 7
     assert step.fields["turns_now"] == 20
@@ -91,15 +91,15 @@ def test_refit_with_lead_offset_and_self_capacitance():
     omega = 2 * math.pi * 100e3
     corrected = [(value / (1 + omega**2 * value * 20e-12), turns) for value, turns in readings]  # hand-worked
     fit = closed_core_fit(corrected, offset=True)
-    assert step.fields["al_H"] == pytest.approx(fit.value, rel=1e-12)
+    assert step.fields["al_H"] == pytest.approx(fit.value, rel=1e-12, abs=0)
     assert step.fields["offset_H"] == pytest.approx(fit.extra["offset_H"], rel=1e-12, abs=1e-15)
     conditions = Conditions(tolerance=0.02, tolerance_assumed=False, meter_frequency=100e3,
                             operating_frequency=500e3, self_capacitance=20e-12)
     for (value, turns), (ours, our_turns) in zip(corrected, low_frequency_readings(readings, conditions), strict=True):
-        assert ours == pytest.approx(value, rel=1e-14) and our_turns == turns
+        assert ours == pytest.approx(value, rel=1e-14, abs=0) and our_turns == turns
     form = ClosedCore(al=fit.value, offset=fit.extra["offset_H"])
     expected, _ = rewind_fields(form, 100e-6, readings, fit, conditions)
-    assert step.fields["turns_exact"] == pytest.approx(expected["turns_exact"], rel=1e-12)
+    assert step.fields["turns_exact"] == pytest.approx(expected["turns_exact"], rel=1e-12, abs=0)
 
 
 def test_offset_waits_for_the_second_reading():

@@ -51,7 +51,7 @@ def q_of(tolerance: float) -> float:
 def test_added_turns_hand_worked():
     """10 turns raising 1.20 mH to 1.45 mH: N = 10/(√(1.45/1.20) − 1) = 100.76 (hand-worked from L = AL·N²)."""
     estimate = count_from_added_turns(1.20e-3, 1.45e-3, 10)
-    assert estimate.turns_exact == pytest.approx(10 / (math.sqrt(1.45 / 1.20) - 1), rel=1e-12)
+    assert estimate.turns_exact == pytest.approx(10 / (math.sqrt(1.45 / 1.20) - 1), rel=1e-12, abs=0)
     assert estimate.turns == 101
     assert "√(1.450 mH/1.200 mH)" in estimate.explanation and "about 101 turns" in estimate.explanation
 
@@ -60,7 +60,7 @@ def test_added_turns_hand_worked():
 def test_added_turns_recovers_the_model_count(turns, added, al):
     """L1 = AL·N², L2 = AL·(N + a)² (IEC 60205) give back N, for any core."""
     estimate = count_from_added_turns(closed_core(al, turns), closed_core(al, turns + added), added)
-    assert estimate.turns_exact == pytest.approx(turns, rel=1e-8)
+    assert estimate.turns_exact == pytest.approx(turns, rel=1e-8, abs=0)
     assert estimate.turns == turns
     assert estimate.turns_low <= turns <= estimate.turns_high
 
@@ -70,8 +70,8 @@ def test_removed_turns_recover_the_model_count(data, turns, al):
     """L2 = AL·(N − b)² after removing b turns gives back N, the count as found (IEC 60205 AL)."""
     removed = data.draw(st.integers(min_value=1, max_value=turns - 1))
     estimate = count_from_added_turns(closed_core(al, turns), closed_core(al, turns - removed), -removed)
-    assert estimate.turns_exact == pytest.approx(turns, rel=1e-8)
-    assert dict(estimate.extra)["turns_after_change"] == pytest.approx(turns - removed, rel=1e-8)
+    assert estimate.turns_exact == pytest.approx(turns, rel=1e-8, abs=0)
+    assert dict(estimate.extra)["turns_after_change"] == pytest.approx(turns - removed, rel=1e-8, abs=0)
 
 
 @given(turns=turns_st, added=st.integers(min_value=-2999, max_value=1000), al=al_st, tolerance=tolerance_st,
@@ -97,7 +97,7 @@ def test_added_turns_interval_is_the_worst_case_and_no_wider(added):
     l1, l2 = closed_core(al, turns), closed_core(al, turns + added)
     estimate = count_from_added_turns(l1, l2, added, tolerance)
     ends = sorted(added / (math.sqrt(l2 * (1 + s) / (l1 * (1 - s))) - 1) for s in (tolerance, -tolerance))
-    assert (estimate.turns_low, estimate.turns_high) == pytest.approx(ends, rel=1e-12)
+    assert (estimate.turns_low, estimate.turns_high) == pytest.approx(ends, rel=1e-12, abs=0)
 
 
 def test_added_turns_interval_widens_with_tolerance_and_narrows_with_more_turns():
@@ -143,7 +143,7 @@ def test_wide_interval_says_when_no_number_of_turns_will_do():
     assert "no number of turns brings it within ±0.5 turn" in estimate.warnings[0]
     # the limit itself, from model data with a million added turns (L = AL·N²)
     far = count_from_added_turns(closed_core(1e-7, 100), closed_core(1e-7, 100 + 10**6), 10**6, 0.01)
-    assert far.turns_high - 100 == pytest.approx(100 * (q_of(0.01) - 1), rel=1e-3)
+    assert far.turns_high - 100 == pytest.approx(100 * (q_of(0.01) - 1), rel=1e-3, abs=0)
 
 
 @given(turns=st.integers(min_value=2, max_value=120), tolerance=st.floats(min_value=1e-3, max_value=0.01),
@@ -180,7 +180,7 @@ def test_unbounded_when_the_change_is_within_the_tolerance():
 def test_test_winding_issue_check_value():
     """A 20-turn test winding at 55 µH on the core, a winding reading 100 µH: 27 turns (issue 4, N² law)."""
     estimate = count_from_test_winding(55e-6, 20, 100e-6)
-    assert estimate.turns_exact == pytest.approx(20 * math.sqrt(100 / 55), rel=1e-12)
+    assert estimate.turns_exact == pytest.approx(20 * math.sqrt(100 / 55), rel=1e-12, abs=0)
     assert estimate.turns == 27
 
 
@@ -189,8 +189,8 @@ def test_test_winding_issue_check_value():
 def test_test_winding_recovers_the_count_and_holds_it_in_the_interval(turns, test_turns, al, tolerance, e1, e2):
     """L_t = AL·n², L_x = AL·N² give N; readings within ±tolerance keep N inside the interval."""
     exact = count_from_test_winding(closed_core(al, test_turns), test_turns, closed_core(al, turns), tolerance)
-    assert exact.turns_exact == pytest.approx(turns, rel=1e-9) and exact.turns == turns
-    assert exact.relative_uncertainty == pytest.approx((q_of(tolerance) - 1 / q_of(tolerance)) / 2, rel=1e-9)
+    assert exact.turns_exact == pytest.approx(turns, rel=1e-9, abs=0) and exact.turns == turns
+    assert exact.relative_uncertainty == pytest.approx((q_of(tolerance) - 1 / q_of(tolerance)) / 2, rel=1e-9, abs=0)
     noisy = count_from_test_winding(closed_core(al, test_turns) * (1 + e1 * tolerance), test_turns,
                                     closed_core(al, turns) * (1 + e2 * tolerance), tolerance)
     assert noisy.turns_low * (1 - 1e-9) <= turns <= noisy.turns_high * (1 + 1e-9)
@@ -214,7 +214,7 @@ def test_resistance_recovers_the_model_count(turns, diameter, turn_length, tempe
     wire = parse_wire(f"{diameter * 1e3:.6f}mm")
     resistance = turns * turn_length * copper_ohm_per_m(wire.diameter, temperature) + lead
     estimate = count_from_resistance(resistance, wire, turn_length, temperature_C=temperature, lead_resistance=lead)
-    assert estimate.turns_exact == pytest.approx(turns, rel=1e-8)
+    assert estimate.turns_exact == pytest.approx(turns, rel=1e-8, abs=0)
     assert estimate.turns == turns
 
 
@@ -242,7 +242,7 @@ def test_resistance_interval_is_the_worst_case_and_no_wider():
     # R' ∝ 1/d², so a wire (1 ± t_d) thick has R'/(1 ± t_d)²
     ends = [(reading * (1 + s * t_r) - lead) / (per_metre / (1 + s * t_d) ** 2 * turn_length * (1 - s * t_l))
             for s in (-1, 1)]
-    assert (estimate.turns_low, estimate.turns_high) == pytest.approx(ends, rel=1e-12)
+    assert (estimate.turns_low, estimate.turns_high) == pytest.approx(ends, rel=1e-12, abs=0)
 
 
 def test_resistance_interval_is_led_by_the_turn_length():
@@ -260,7 +260,7 @@ def test_mean_turn_length_of_an_even_layered_winding():
     bobbin, wire, layers = 0.012, 0.0005, 7
     per_layer = [math.pi * (bobbin + (2 * k + 1) * wire) for k in range(layers)]  # turn centres, layer by layer
     inner, outer = math.pi * bobbin, math.pi * (bobbin + 2 * layers * wire)
-    assert mean_turn_length(inner, outer) == pytest.approx(sum(per_layer) / layers, rel=1e-12)
+    assert mean_turn_length(inner, outer) == pytest.approx(sum(per_layer) / layers, rel=1e-12, abs=0)
     with pytest.raises(InvalidInputError) as caught:
         mean_turn_length(0.05, 0.04)
     assert caught.value.option == "--outer-perimeter"

@@ -64,7 +64,7 @@ def test_awg_matches_formula_recomputed_with_mpmath(gauge):
     """awg_diameter reproduces the ASTM B258 formula (references.md §7 (b) gauges) to 1e-13."""
     # Source: ASTM B258 formula, as given on https://cvrt.me/en/bb/viewtopic.php?f=1&t=1103
     expected_mm = float(awg_mm_mpmath(gauge))
-    assert float(awg_diameter(gauge)) * 1e3 == pytest.approx(expected_mm, rel=1e-13)
+    assert float(awg_diameter(gauge)) * 1e3 == pytest.approx(expected_mm, rel=1e-13, abs=0)
 
 
 @pytest.mark.parametrize(("gauge", "published_mm"), [
@@ -82,8 +82,8 @@ def test_awg_matches_rounded_published_table(gauge, published_mm):
 def test_awg_36_and_0000_are_exact_by_definition():
     """36 AWG is 0.005 in and 0000 AWG 0.46 in: the two points that define the series."""
     # Source: ASTM B258 definition of the series (references.md §7).
-    assert float(awg_diameter(36)) / INCH == pytest.approx(0.005, rel=1e-14)
-    assert float(awg_diameter(-3)) / INCH == pytest.approx(0.46, rel=1e-14)
+    assert float(awg_diameter(36)) / INCH == pytest.approx(0.005, rel=1e-14, abs=0)
+    assert float(awg_diameter(-3)) / INCH == pytest.approx(0.46, rel=1e-14, abs=0)
     assert float(awg_diameter("0000")) == float(awg_diameter("4/0")) == float(awg_diameter(-3))
 
 
@@ -121,13 +121,13 @@ def test_awg_39_gauges_span_ratio_92(gauge):
     """Any 39 gauges apart differ in diameter by exactly 92 (the B258 definition)."""
     # Source: ASTM B258 formula (references.md §7).
     ratio = float(awg_diameter(gauge)) / float(awg_diameter(gauge + 39))
-    assert ratio == pytest.approx(92.0, rel=1e-12)
+    assert ratio == pytest.approx(92.0, rel=1e-12, abs=0)
 
 
 def test_awg_six_gauges_about_halve_the_diameter():
     """Six gauges up about halves the diameter (92^(6/39) = 2.005)."""
     # Common practice, no source: "six gauges halve the diameter".
-    assert float(awg_diameter(18) / awg_diameter(24)) == pytest.approx(2.0, rel=0.003)
+    assert float(awg_diameter(18) / awg_diameter(24)) == pytest.approx(2.0, rel=0.003, abs=0)
 
 
 # --------------------------------------------------------------------------- copper
@@ -137,7 +137,7 @@ def test_copper_resistivity_at_20C():
     """rho20 = 1/58 ohm mm^2/m = 17.241 nohm m."""
     # Source: IEC 60028:1925 (https://tnlab.org/iec-60028-the-international-standard-of-
     # resistance-for-copper-1925/): 58 MS/m, 0.017241 ohm mm^2/m.
-    assert float(copper_resistivity(20.0)) == pytest.approx(1 / 58e6, rel=1e-15)
+    assert float(copper_resistivity(20.0)) == pytest.approx(1 / 58e6, rel=1e-15, abs=0)
     assert float(copper_resistivity(20.0)) * 1e9 == pytest.approx(17.241, abs=0.0005)
 
 
@@ -147,7 +147,7 @@ def test_copper_resistivity_follows_iec_60028_line(temperature):
     # Source: IEC 60028 (alpha20 = 0.00393/K referenced to 20 °C); references.md §7 gives
     # (b) rho(100 °C) = 22.662 nohm m from the same definition.
     expected = float(rho_mpmath(temperature))
-    assert float(copper_resistivity(temperature)) == pytest.approx(expected, rel=1e-14)
+    assert float(copper_resistivity(temperature)) == pytest.approx(expected, rel=1e-14, abs=0)
 
 
 def test_copper_resistivity_100C_rounded_value():
@@ -171,7 +171,7 @@ def test_resistance_per_metre_awg(gauge):
     d = awg_mm_mpmath(gauge) * mpmath.mpf("1e-3")
     expected = float(rho_mpmath(20) / (mpmath.pi * d**2 / 4))
     wire = parse_wire(f"{gauge}awg")
-    assert float(wire.resistance_per_metre()) == pytest.approx(expected, rel=1e-12)
+    assert float(wire.resistance_per_metre()) == pytest.approx(expected, rel=1e-12, abs=0)
     assert float(copper_resistance_per_metre(float(awg_diameter(gauge)))) == pytest.approx(
         expected, rel=1e-12)
 
@@ -180,7 +180,7 @@ def test_resistance_rises_with_temperature_like_resistivity():
     """The ratio R(T)/R(20) is the IEC 60028 ratio 1 + 0.00393 (T - 20)."""
     wire = parse_wire("0.5mm")
     ratio = float(wire.resistance_per_metre(80.0) / wire.resistance_per_metre(20.0))
-    assert ratio == pytest.approx(1 + 0.00393 * 60, rel=1e-14)
+    assert ratio == pytest.approx(1 + 0.00393 * 60, rel=1e-14, abs=0)
 
 
 # --------------------------------------------------------------------------- enamel
@@ -211,9 +211,9 @@ def test_enamel_build_reproduces_published_rows(nominal_mm, grade, increase_mm, 
     build = enamel_build(nominal_mm * 1e-3, grade)
     assert float(build.minimum_overall) * 1e3 == pytest.approx(nominal_mm + increase_mm,
                                                                rel=1e-12)
-    assert float(build.maximum_overall) * 1e3 == pytest.approx(maximum_mm, rel=1e-12)
+    assert float(build.maximum_overall) * 1e3 == pytest.approx(maximum_mm, rel=1e-12, abs=0)
     midpoint = 0.5 * (nominal_mm + increase_mm + maximum_mm)
-    assert float(build.typical_overall) * 1e3 == pytest.approx(midpoint, rel=1e-12)
+    assert float(build.typical_overall) * 1e3 == pytest.approx(midpoint, rel=1e-12, abs=0)
     assert not bool(build.extrapolated)
 
 
@@ -310,7 +310,7 @@ def test_swg_rows_against_published_table(gauge, inches, published_mm):
     # mm; 7/0 to 44 inches also http://www.calfinewire.com/wirech.htm). That page prints 1/0 as
     # 8.236 mm, a slip: 0.324 in is 8.2296 mm, printed 8.230 in the table of
     # https://gs66-vdclambda.ndc.nasa.gov/product/websites/AMI/mrao.cam.ac.uk/~rob/SI/siwire.htm
-    assert swg_diameter(gauge) / INCH == pytest.approx(inches, rel=1e-12)
+    assert swg_diameter(gauge) / INCH == pytest.approx(inches, rel=1e-12, abs=0)
     assert swg_diameter(gauge) * 1e3 == pytest.approx(published_mm, abs=0.0005)
 
 
@@ -343,7 +343,7 @@ def test_metric_series_follows_iso3_preferred_numbers():
     for row, value in zip(rows, values, strict=True):
         steps = 20 if row["renard"] == "R20" else 40
         k = round(steps * math.log10(value))
-        assert value == pytest.approx(10 ** (k / steps), rel=0.013)
+        assert value == pytest.approx(10 ** (k / steps), rel=0.013, abs=0)
         if row["renard"] == "R40":
             assert k % 2 == 1  # an R40 intermediate is not also an R20 value
 
@@ -383,7 +383,7 @@ def test_parse_wire_accepted_spellings(text, label, diameter):
     """Gauges and diameters in the spellings users type, case-blind."""
     wire = parse_wire(text)
     assert wire.label == label
-    assert wire.diameter == pytest.approx(diameter, rel=1e-12)
+    assert wire.diameter == pytest.approx(diameter, rel=1e-12, abs=0)
     assert wire.grade == "1"
 
 
@@ -476,14 +476,14 @@ def test_awg_label_round_trips(twice_gauge):
     text = f"{gauge:g}awg" if gauge >= 1 else f"{1 - int(gauge)}/0awg"
     wire = parse_wire(text)
     assert parse_wire(wire.label) == wire
-    assert wire.diameter == pytest.approx(float(awg_diameter(gauge)), rel=1e-14)
+    assert wire.diameter == pytest.approx(float(awg_diameter(gauge)), rel=1e-14, abs=0)
 
 
 @pytest.mark.parametrize("series", ["swg", "metric"])
 def test_table_labels_round_trip(series):
     """Every label in the SWG and metric listings parses back to the same bare diameter."""
     for wire in wire_table(series):
-        assert parse_wire(wire.label).diameter == pytest.approx(wire.diameter, rel=1e-12)
+        assert parse_wire(wire.label).diameter == pytest.approx(wire.diameter, rel=1e-12, abs=0)
 
 
 # --------------------------------------------------------------------------- the record
@@ -504,7 +504,7 @@ def test_wire_record_is_frozen_and_strict():
 def test_wire_area_and_with_grade():
     """area is pi d^2/4; with_grade keeps the copper and changes the enamel."""
     wire = parse_wire("1mm")
-    assert wire.area == pytest.approx(math.pi / 4 * 1e-6, rel=1e-15)
+    assert wire.area == pytest.approx(math.pi / 4 * 1e-6, rel=1e-15, abs=0)
     thick = wire.with_grade("3")
     assert thick.diameter == wire.diameter and thick.grade == "3"
     assert thick.overall_diameter > wire.overall_diameter
@@ -514,7 +514,7 @@ def test_wire_area_and_with_grade():
 def test_current_for_density():
     """I = J * pi d^2/4 with J in A/mm^2."""
     wire = parse_wire("1mm")
-    assert float(current_for_density(wire, 3.0)) == pytest.approx(3 * math.pi / 4, rel=1e-14)
+    assert float(current_for_density(wire, 3.0)) == pytest.approx(3 * math.pi / 4, rel=1e-14, abs=0)
     np.testing.assert_allclose(current_for_density(wire, [1.0, 2.0]),
                                [math.pi / 4, math.pi / 2], rtol=1e-14)
     for bad in (0.0, -1.0, float("nan")):

@@ -27,6 +27,7 @@ _COMMANDS: dict[str, tuple[str, str, str]] = {
     "rod": ("rod", "rod", "Coil on a ferrite rod: turns or inductance, calibrated by a reading."),
     "gapped": ("gapped", "gapped", "Gapped core (E, pot, drum): AL with fringing, turns or gap, saturation."),
     "wire": ("wire", "wire", "Wire gauges: bare and enamelled diameters, resistance, current."),
+    "tank": ("tank", "tank", "Tuned circuits: L, C and f; band coverage; L and stray C from resonances."),
     "trim": ("trim", "trim", "The measurement log of one coil being trimmed: start, add a reading, show."),
     "count-turns": ("count_turns", "count_turns", "Unknown turn count: added turns, test winding, DC resistance."),
 }

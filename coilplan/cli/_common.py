@@ -40,7 +40,7 @@ def emit(*, command: str, as_json: bool, inputs: dict, result: dict, warnings_: 
         click.echo(json_document(command, inputs, result, warnings_, cautions))
         return
     lines = render(result)
-    notes = bullet_lines("warnings", warnings_) + bullet_lines("cautions", cautions)
-    if notes:
-        lines = [*lines, "", *notes]
+    for block in (bullet_lines("warnings", warnings_), bullet_lines("cautions", cautions)):
+        if block:
+            lines = [*lines, "", *block]
     click.echo("\n".join(lines))

@@ -42,15 +42,15 @@ def ring_core_constants(inner_diameter, outer_diameter, height, chamfer=0.0):
 
     .. math::
 
-        C_1 = rac{2\pi}{I_1},\quad C_2 = rac{2\pi\,I_2}{I_1^3},\qquad
-        I_1 = \int_{r_1}^{r_2}rac{h(r)}{r}\,dr,\quad I_2 = \int_{r_1}^{r_2}rac{h(r)}{r^2}\,dr
+        C_1 = \frac{2\pi}{I_1},\quad C_2 = \frac{2\pi\,I_2}{I_1^3},\qquad
+        I_1 = \int_{r_1}^{r_2}\frac{h(r)}{r}\,dr,\quad I_2 = \int_{r_1}^{r_2}\frac{h(r)}{r^2}\,dr
 
     which for a plain rectangle (h(r) = h) are the familiar
 
     .. math::
 
-        C_1 = rac{2\pi}{h\,\ln(r_2/r_1)},\qquad
-        C_2 = rac{2\pi\,(1/r_1 - 1/r_2)}{h^2 \ln^3(r_2/r_1)}
+        C_1 = \frac{2\pi}{h\,\ln(r_2/r_1)},\qquad
+        C_2 = \frac{2\pi\,(1/r_1 - 1/r_2)}{h^2 \ln^3(r_2/r_1)}
 
     Parameters
     ----------

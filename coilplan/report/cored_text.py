@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from coilplan.quantities import format_length, format_quantity
-from coilplan.report.text import aligned_rows
+from coilplan.report.text import aligned_rows, turns_word
 from coilplan.report.turns_rows import henry, turns_rows
 
 __all__ = ["gapped_lines", "rod_lines", "toroid_lines"]
@@ -18,8 +18,8 @@ def _winding_rows(result: dict) -> list[tuple[str, ...]]:
     grade = {"bare": "bare wire", "measured": "measured overall"}.get(
         wire["grade"], f"grade {wire['grade']} enamel")
     lead = result["lead_m"]
-    lead_note = (f"{result['turns']} turns + 2 × {format_length(lead)} leads" if lead > 0
-                 else f"{result['turns']} turns, no lead allowance (add --lead)")
+    lead_note = (f"{turns_word(result['turns'])} + 2 × {format_length(lead)} leads" if lead > 0
+                 else f"{turns_word(result['turns'])}, no lead allowance (add --lead)")
     rows = [
         ("wire", wire["label"], f"{format_length(wire['overall_diameter_m'])} overall, {grade}"),
         ("wire to cut", format_length(result["wire_length_m"]), lead_note),
@@ -64,7 +64,7 @@ def _drive_rows(result: dict) -> list[tuple[str, ...]]:
 def toroid_lines(result: dict) -> list[str]:
     """Lines of the toroid report: the answer, the core's IEC 60205 figures, winding and drive."""
     title = (f"Toroid for {henry(result['target_H'])}" if "target_H" in result
-             else f"Toroid, {result['turns']} turns")
+             else f"Toroid, {turns_word(result['turns'])}")
     rows = turns_rows(result)
     mu_note = "implied by the AL value" if result["mu_r_implied"] else ""
     rows += [
@@ -75,8 +75,8 @@ def toroid_lines(result: dict) -> list[str]:
         ("effective length le", format_length(result["le_m"]), "IEC 60205"),
         ("effective area Ae", f"{result['ae_m2'] * 1e6:.4g} mm²", "IEC 60205"),
         ("effective volume Ve", f"{result['ve_m3'] * 1e9:.4g} mm³", "IEC 60205"),
-        ("one layer holds", f"{result['turns_one_layer']} turns", "on the inside circumference"),
-        ("window holds", f"{result['turns_window']} turns", "layer on layer to the centre (theoretical)"),
+        ("one layer holds", f"{turns_word(result['turns_one_layer'])}", "on the inside circumference"),
+        ("window holds", f"{turns_word(result['turns_window'])}", "layer on layer to the centre (theoretical)"),
         ("wire per turn", format_length(result["wire_per_turn_m"]), "first layer"),
     ]
     rows += _winding_rows(result) + _drive_rows(result)
@@ -92,17 +92,17 @@ def gapped_lines(result: dict) -> list[str]:
     if mode == "choke design":
         title = (f"Gapped choke for {henry(result['asked_H'])} at "
                  f"{format_quantity(result['current_A'] + result['ac_current_A'], 'A', 3)} peak")
-        rows = [("wind", f"{result['turns']} turns", f"gives {henry(result['inductance_H'])}"),
+        rows = [("wind", f"{turns_word(result['turns'])}", f"gives {henry(result['inductance_H'])}"),
                 ("gap", format_length(result["gap_m"]), "total in the magnetic path, computed"),
                 ("flux limit used", format_quantity(result["max_flux_density_T"], "T", 3),
                  "the fewest turns that stay below it")]
     elif mode == "gap for turns":
-        title = f"Gapped core: the gap for {henry(result['asked_H'])} at {result['turns']} turns"
+        title = f"Gapped core: the gap for {henry(result['asked_H'])} at {turns_word(result['turns'])}"
         rows = [("gap", format_length(result["gap_m"]), "total in the magnetic path, computed"),
                 ("inductance", henry(result["inductance_H"]))]
     else:
         title = (f"Gapped core for {henry(result['target_H'])}" if "target_H" in result
-                 else f"Gapped core, {result['turns']} turns")
+                 else f"Gapped core, {turns_word(result['turns'])}")
         rows = turns_rows(result)
         if result["gap_m"] is not None:
             rows.append(("gap", format_length(result["gap_m"]), "total in the magnetic path"))
@@ -121,7 +121,7 @@ def gapped_lines(result: dict) -> list[str]:
     if result["turns_per_layer"] is not None:
         rows.append(("turns per layer", f"{result['turns_per_layer']}"))
     if result["max_turns"] is not None:
-        rows.append(("window holds", f"{result['max_turns']} turns", "layer winding"))
+        rows.append(("window holds", f"{turns_word(result['max_turns'])}", "layer winding"))
     rows += _winding_rows(result) + _drive_rows(result)
     return [title, "", *aligned_rows(rows)]
 
@@ -129,7 +129,7 @@ def gapped_lines(result: dict) -> list[str]:
 def rod_lines(result: dict) -> list[str]:
     """Lines of the rod-coil report: the answer, the rod's effect, the winding and the model's standing."""
     title = (f"Coil on a ferrite rod for {henry(result['target_H'])}" if "target_H" in result
-             else f"Coil on a ferrite rod, {result['turns']} turns")
+             else f"Coil on a ferrite rod, {turns_word(result['turns'])}")
     rows = turns_rows(result)
     rows += [
         ("without the rod", henry(result["air_inductance_H"]), "the same winding in air (Nagaoka sheet)"),
@@ -142,7 +142,7 @@ def rod_lines(result: dict) -> list[str]:
         ("winding length", format_length(result["length_m"]),
          "centred on the rod" if result["position_m"] == 0 else
          f"centre {format_length(abs(result['position_m']))} off the rod's centre"),
-        ("most that fit", f"{result['max_turns']} turns"),
+        ("most that fit", f"{turns_word(result['max_turns'])}"),
     ]
     if result["calibrated"]:
         residuals = ", ".join(f"{value:+.2%}" for value in result["measured_residuals"])

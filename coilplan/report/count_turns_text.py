@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import math
 
-from coilplan.report.text import aligned_rows
+from coilplan.report.text import aligned_rows, turns_word
 from coilplan.turn_count import METHOD_LABELS
 
 __all__ = ["count_turns_lines"]
@@ -32,7 +32,7 @@ def count_turns_lines(result: dict) -> list[str]:
     turn count: about 100 turns (99 to 101), by test winding
     """
     label = METHOD_LABELS[result["method"]]
-    lines = [f"turn count: about {result['turns']} turns ({_range(result['turns_range'])}), by {label}"]
+    lines = [f"turn count: about {turns_word(result['turns'])} ({_range(result['turns_range'])}), by {label}"]
     rows = [("method", "turns", "range", "±")]
     for method in result["methods"]:
         rows.append((METHOD_LABELS[method["method"]], str(method["turns"]), _range(method["turns_range"]),

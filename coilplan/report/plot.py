@@ -15,6 +15,7 @@ from pathlib import Path
 import numpy as np
 
 from coilplan.errors import InvalidInputError
+from coilplan.report.text import turns_word
 
 __all__ = ["PLOT_FORMATS", "plot_format", "trim_plot"]
 
@@ -96,7 +97,7 @@ def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float
     axes.errorbar([count for _, count in readings], values * micro, yerr=values * tolerance * micro, fmt="o",
                   color="black", capsize=3, label="readings ± meter tolerance")
     axes.plot([turns], [inductance * micro], marker="*", markersize=14, linestyle="none", color="tab:red",
-              label=f"stop at {turns} turns")
+              label=f"stop at {turns_word(turns)}")
     axes.set_xlabel("turns")
     axes.set_ylabel("inductance at low frequency (µH)" if low_frequency else "inductance (µH)")
     axes.grid(True, alpha=0.3)

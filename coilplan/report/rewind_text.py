@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from coilplan.quantities import format_quantity
-from coilplan.report.text import aligned_rows
+from coilplan.report.text import aligned_rows, turns_word
 from coilplan.report.turns_rows import henry, rewind_rows
 
 __all__ = ["rewind_lines"]
@@ -16,7 +16,7 @@ def rewind_lines(result: dict) -> list[str]:
     if result["offset_H"]:
         rows.append(("leads", henry(result["offset_H"]), "fitted series part, L = AL·N² + L0"))
     for reading, residual in zip(result["readings"], result["residuals"], strict=True):
-        rows.append(("reading", f"{henry(reading['inductance_H'])} at {reading['turns']} turns",
+        rows.append(("reading", f"{henry(reading['inductance_H'])} at {turns_word(reading['turns'])}",
                      f"{residual:+.2%} off the fit"))
     for notice in result.get("notices", []):
         rows.append(("note", notice))

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from coilplan.quantities import format_length, format_quantity
-from coilplan.report.text import aligned_rows
+from coilplan.report.text import aligned_rows, turns_word
 from coilplan.report.turns_rows import henry, turns_rows
 
 __all__ = ["solenoid_lines"]
@@ -30,10 +30,10 @@ def solenoid_lines(result: dict) -> list[str]:
     elif "target_H" in result:
         title = f"Single-layer air-core coil for {henry(result['target_H'])}"
     else:
-        title = f"Single-layer air-core coil, {turns} turns"
+        title = f"Single-layer air-core coil, {turns_word(turns)}"
     rows = turns_rows(result)
     if "max_turns" in result:
-        rows.append(("most that fit", f"{result['max_turns']} turns",
+        rows.append(("most that fit", f"{turns_word(result['max_turns'])}",
                      f"up to {henry(result['max_inductance_H'])}"))
     if "max_length_m" in result:
         rows.append(("former length", f"{format_length(result['length_m'])} used",
@@ -47,8 +47,8 @@ def solenoid_lines(result: dict) -> list[str]:
         diameter_note += f" (former {format_length(result['former_diameter_m'])} + wire)"
     pitch_note = "close wound" if result["close_wound"] else "spaced"
     lead = result["lead_m"]
-    lead_note = (f"{turns} turns + 2 × {format_length(lead)} leads" if lead > 0
-                 else f"{turns} turns, no lead allowance (add --lead)")
+    lead_note = (f"{turns_word(turns)} + 2 × {format_length(lead)} leads" if lead > 0
+                 else f"{turns_word(turns)}, no lead allowance (add --lead)")
     rows += [
         ("coil diameter", format_length(result["diameter_m"]), diameter_note),
         ("wire", f"{wire['label']}",

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable, Sequence
 
-__all__ = ["aligned_rows", "bullet_lines"]
+__all__ = ["aligned_rows", "bullet_lines", "turns_word"]
 
 
 def aligned_rows(rows: Iterable[Sequence[str]], indent: int = 2) -> list[str]:
@@ -45,3 +45,14 @@ def bullet_lines(title: str, items: Sequence[str]) -> list[str]:
     if not items:
         return []
     return [f"{title}:"] + [f"  - {item}" for item in items]
+
+
+def turns_word(count) -> str:
+    """A whole number of turns in words: ``1 turn``, ``2 turns``.
+
+    Examples
+    --------
+    >>> turns_word(1), turns_word(40)
+    ('1 turn', '40 turns')
+    """
+    return f"{count} turn" if count == 1 else f"{count} turns"

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from coilplan.quantities import format_quantity
+from coilplan.report.text import turns_word
 
 __all__ = ["henry", "rewind_rows", "turns_rows"]
 
@@ -24,12 +25,12 @@ def turns_rows(result: dict) -> list[tuple[str, ...]]:
         return [("inductance", henry(result["inductance_H"]))]
     if "turns_now" in result:
         return rewind_rows(result)
-    rows = [("wind", f"{result['turns']} turns", f"gives {henry(result['inductance_H'])}"),
+    rows = [("wind", f"{turns_word(result['turns'])}", f"gives {henry(result['inductance_H'])}"),
             ("exact solution", f"{result['turns_exact']:.3f} turns")]
     if result["turns_below"] != result["turns_above"]:
         rows.append(("whole turns either side",
-                     f"{result['turns_below']} turns: {henry(result['inductance_below_H'])}",
-                     f"{result['turns_above']} turns: {henry(result['inductance_above_H'])}"))
+                     f"{turns_word(result['turns_below'])}: {henry(result['inductance_below_H'])}",
+                     f"{turns_word(result['turns_above'])}: {henry(result['inductance_above_H'])}"))
     return rows
 
 
@@ -43,14 +44,14 @@ def rewind_rows(result: dict) -> list[tuple[str, ...]]:
     """The answer rows for a measured coil: now, the change, the range, the words and the plan."""
     low, high = result["turns_range"]
     span = ("n/a" if low is None or high is None
-            else f"{low} turns" if low == high else f"{low} to {high} turns")
+            else f"{turns_word(low)}" if low == high else f"{low} to {turns_word(high)}")
     basis = f"±{result['uncertainty']:.1%} on the calibrated model"
     if result["tolerance_assumed"]:
         basis += " (meter tolerance assumed)"
     rows = [
-        ("now", f"{result['turns_now']} turns"),
-        ("change", _change(result["turns_change"]), f"to {result['turns']} turns"),
-        ("expect", henry(result["inductance_H"]), f"at {result['turns']} turns"),
+        ("now", f"{turns_word(result['turns_now'])}"),
+        ("change", _change(result["turns_change"]), f"to {turns_word(result['turns'])}"),
+        ("expect", henry(result["inductance_H"]), f"at {turns_word(result['turns'])}"),
     ]
     if result.get("apparent_inductance_H") and result["apparent_inductance_H"] != result["inductance_H"]:
         rows.append(("", henry(result["apparent_inductance_H"]), "apparent, at the operating frequency"))

@@ -53,7 +53,7 @@ def test_json_document_shape_and_keys():
 def test_json_recovers_the_model_count_by_each_method():
     """Readings made from L = AL·N² with N = 90 give 90 by added turns and by the test winding."""
     result = run_json(*ADDED, *TEST_WINDING)["result"]
-    assert result["turns"] == 90 and result["turns_exact"] == pytest.approx(90, rel=1e-7)
+    assert result["turns"] == 90 and result["turns_exact"] == pytest.approx(90, rel=1e-7, abs=0)
     assert all(m["turns"] == 90 for m in result["methods"])
     # ±1 % readings: the test winding's ±(q − 1/q)/2, q = √(1.01/0.99), beats 20 added turns on 90
     assert result["method"] == "test-winding"
@@ -66,7 +66,7 @@ def test_removed_turns_by_option_and_by_negative_added_agree():
     removed = run_json("--before", henry_text(110), "--after", henry_text(90), "--removed", "20")["result"]
     negative = run_json("--before", henry_text(110), "--after", henry_text(90), "--added", "-20")["result"]
     assert removed == negative
-    assert removed["turns"] == 110 and removed["methods"][0]["turns_after_change"] == pytest.approx(90, rel=1e-7)
+    assert removed["turns"] == 110 and removed["methods"][0]["turns_after_change"] == pytest.approx(90, rel=1e-7, abs=0)
 
 
 def test_resistance_from_perimeters_equals_the_given_turn_length():
@@ -86,7 +86,7 @@ def test_lead_resistance_is_subtracted():
     ohms = turns * turn_length * (1e-6 / 58.0) / (math.pi * diameter**2 / 4.0) + leads
     result = run_json("--resistance", f"{ohms:.9g}ohm", "--wire", "0.3mm", "--turn-length", "50mm",
                       "--lead-resistance", "0.25ohm")["result"]
-    assert result["turns_exact"] == pytest.approx(turns, rel=1e-7)
+    assert result["turns_exact"] == pytest.approx(turns, rel=1e-7, abs=0)
 
 
 def test_text_report_lines():

@@ -33,16 +33,16 @@ def test_rod_raises_inductance_and_warns_until_calibrated():
 def test_mu_one_is_the_air_coil():
     """µ = 1: the rod does nothing, and the answer is the Nagaoka current sheet of the winding."""
     result = run_json(*ROD, "--mu", "1", "--turns", "40")["result"]
-    assert result["inductance_H"] == pytest.approx(result["air_inductance_H"], rel=1e-9)
+    assert result["inductance_H"] == pytest.approx(result["air_inductance_H"], rel=1e-9, abs=0)
 
 
 def test_calibration_reproduces_the_reading():
     """With one reading the calibrated model gives that reading back at its turns (the scale fit)."""
     document = run_json(*ROD, "--material", "nizn-125", "--measured", "240uH@60", "--turns", "60")
-    assert document["result"]["inductance_H"] == pytest.approx(240e-6, rel=1e-12)
+    assert document["result"]["inductance_H"] == pytest.approx(240e-6, rel=1e-12, abs=0)
     assert not any("uncalibrated" in text for text in document["warnings"])
     inverse = run_json(*ROD, "--material", "nizn-125", "--measured", "240uH@60", "--target", "240uH")["result"]
-    assert inverse["turns_exact"] == pytest.approx(60, rel=1e-9)
+    assert inverse["turns_exact"] == pytest.approx(60, rel=1e-9, abs=0)
 
 
 def test_coil_off_centre_has_less_inductance():

@@ -31,7 +31,7 @@ def test_inverse_json_shape_and_round_trip():
     assert isinstance(result["turns"], int)
     assert result["inductance_below_H"] <= 10e-6 <= result["inductance_above_H"]
     forward = run_json(*BASE, "--turns", str(result["turns"]))["result"]
-    assert forward["inductance_H"] == pytest.approx(result["inductance_H"], rel=1e-12)
+    assert forward["inductance_H"] == pytest.approx(result["inductance_H"], rel=1e-12, abs=0)
     for key in ("turns_exact", "length_m", "pitch_m", "diameter_m", "nagaoka", "wire_length_m",
                 "dc_resistance_ohm"):
         assert isinstance(result[key], float) and math.isfinite(result[key]), key
@@ -42,8 +42,8 @@ def test_forward_against_rosa_worked_example():
     result = run_json("solenoid", "--diameter", "50mm", "--pitch", "2mm", "--wire", "1mm",
                       "--grade", "bare", "--turns", "25")["result"]
     exact = float(ref.rosa_solenoid(0.05, 0.002, 0.001, 25, mu_0))  # mpmath, independent
-    assert result["inductance_H"] == pytest.approx(exact, rel=1e-12)
-    assert result["nagaoka"] == pytest.approx(float(ref.nagaoka(1.0)), rel=1e-13)
+    assert result["inductance_H"] == pytest.approx(exact, rel=1e-12, abs=0)
+    assert result["nagaoka"] == pytest.approx(float(ref.nagaoka(1.0)), rel=1e-13, abs=0)
     assert result["length_m"] == pytest.approx(24 * 0.002 + 0.001)  # (N − 1)·p + d, end to end
 
 
@@ -88,9 +88,9 @@ def test_methods_agree_within_their_stated_accuracy():
     args = ("solenoid", "--diameter", "30mm", "--wire", "0.8mm", "--turns", "40")
     value = {m: run_json(*args, "--method", m)["result"]["inductance_H"]
              for m in ("nagaoka-rosa", "filament", "sheet", "lundin", "wheeler-1982")}
-    assert value["filament"] == pytest.approx(value["nagaoka-rosa"], rel=5e-4)
-    assert value["lundin"] == pytest.approx(value["sheet"], rel=3e-6)
-    assert value["wheeler-1982"] == pytest.approx(value["sheet"], rel=2.5e-5)
+    assert value["filament"] == pytest.approx(value["nagaoka-rosa"], rel=5e-4, abs=0)
+    assert value["lundin"] == pytest.approx(value["sheet"], rel=3e-6, abs=0)
+    assert value["wheeler-1982"] == pytest.approx(value["sheet"], rel=2.5e-5, abs=0)
 
 
 def test_text_output_names_the_answer_first():

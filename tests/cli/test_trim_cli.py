@@ -49,8 +49,8 @@ def test_start_prints_the_first_answer(tmp_path):
     document = run_json("trim", "start", tmp_path / "c.json", "--target", "100uH", "--tolerance", "2%",
                         "--measured", "55uH@20")
     result = document["result"]
-    assert result["al_H"] == pytest.approx(55e-6 / 400, rel=1e-12)
-    assert result["turns_exact"] == pytest.approx(20 * math.sqrt(100 / 55), rel=1e-9)  # hand-worked
+    assert result["al_H"] == pytest.approx(55e-6 / 400, rel=1e-12, abs=0)
+    assert result["turns_exact"] == pytest.approx(20 * math.sqrt(100 / 55), rel=1e-9, abs=0)  # hand-worked
     assert (result["turns_now"], result["turns"], result["turns_change"]) == (20, 27, 7)
     assert result["turns_range"] == [27, 27]
     assert result["file"] == str(tmp_path / "c.json")
@@ -74,7 +74,7 @@ def test_start_add_show_round_trip(log):
         document = run_json("trim", "add", log, "--measured", f"{value * 1e6:g}uH@{turns}", "--note", "trimmed")
     result = document["result"]
     fit = closed_core_fit(readings)
-    assert result["al_H"] == pytest.approx(fit.value, rel=1e-12)
+    assert result["al_H"] == pytest.approx(fit.value, rel=1e-12, abs=0)
     assert result["residuals"] == pytest.approx(list(fit.residuals), rel=1e-9, abs=1e-15)
     assert [r["turns"] for r in result["readings"]] == [20, 28, 27]
     assert result["readings"][2]["note"] == "trimmed"

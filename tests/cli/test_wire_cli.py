@@ -49,13 +49,13 @@ def test_one_wire_json_fields():
     assert set(wire) == ONE_WIRE_KEYS
     d = awg_m(24)
     assert wire["label"] == "24 AWG" and wire["grade"] == "1" and wire["series"] == "awg"
-    assert wire["diameter_m"] == pytest.approx(d, rel=1e-12)
+    assert wire["diameter_m"] == pytest.approx(d, rel=1e-12, abs=0)
     assert d < wire["overall_diameter_m"] < wire["max_overall_diameter_m"]
-    assert wire["resistance_ohm_per_m"] == pytest.approx(copper_ohm_per_m(d), rel=1e-12)
+    assert wire["resistance_ohm_per_m"] == pytest.approx(copper_ohm_per_m(d), rel=1e-12, abs=0)
     assert wire["resistance_at_temperature_ohm_per_m"] == wire["resistance_ohm_per_m"]
     assert wire["current_A"] == pytest.approx(3.0 * float(mpmath.pi) / 4 * (d * 1e3) ** 2,
                                               rel=1e-12)
-    assert wire["turns_per_m"] == pytest.approx(1 / wire["overall_diameter_m"], rel=1e-12)
+    assert wire["turns_per_m"] == pytest.approx(1 / wire["overall_diameter_m"], rel=1e-12, abs=0)
     grades = wire["overall_diameter_by_grade_m"]
     assert grades["1"] == wire["overall_diameter_m"] < grades["2"] < grades["3"]
     assert document["warnings"] == [] and document["cautions"] == []
@@ -128,7 +128,7 @@ def test_full_listing_json():
     assert [item["series"] for item in wires[:1] + wires[48:49] + wires[-1:]] == [
         "awg", "swg", "metric"]
     assert wires[0]["label"] == "4/0 AWG"
-    assert wires[0]["diameter_m"] == pytest.approx(0.46 * INCH, rel=1e-12)  # B258 definition
+    assert wires[0]["diameter_m"] == pytest.approx(0.46 * INCH, rel=1e-12, abs=0)  # B258 definition
     assert document["warnings"]  # the thickest gauges lie beyond the enamel table
 
 

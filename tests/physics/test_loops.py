@@ -389,7 +389,7 @@ def test_filaments_equal_direct_double_loop():
         for j in range(n):
             if i != j:
                 direct += float(coaxial_mutual_inductance(r[i], r[j], z[i] - z[j]))
-    assert coaxial_filaments_inductance(r, z, rho) == pytest.approx(direct, rel=1e-13)
+    assert coaxial_filaments_inductance(r, z, rho) == pytest.approx(direct, rel=1e-13, abs=0)
 
 
 def test_filaments_chunk_size_does_not_change_the_result():
@@ -428,7 +428,7 @@ def test_solenoid_sum_equals_general_filament_sum():
     """solenoid_filament_inductance equals coaxial_filaments_inductance for the same turns."""
     n, D, p, d = 40, 0.03, 0.0012, 0.0008
     general = coaxial_filaments_inductance(np.full(n, D / 2), p * np.arange(n), d / 2)
-    assert solenoid_filament_inductance(D, p, d, n) == pytest.approx(general, rel=1e-12)
+    assert solenoid_filament_inductance(D, p, d, n) == pytest.approx(general, rel=1e-12, abs=0)
 
 
 def test_solenoid_sum_matches_mpmath_sum():

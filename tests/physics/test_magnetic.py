@@ -23,7 +23,7 @@ def test_iec_60205_ring_example():
     # thin rings in parallel: conductance h dr / (2πr); C1 is the reciprocal of their sum
     c1_exact = 1 / mp.quad(lambda r: h / (2 * mp.pi * r), [r1, r2])
     c1, c2 = mag.ring_core_constants(15e-3, 25e-3, 10e-3)
-    assert float(c1) == pytest.approx(float(c1_exact), rel=1e-12)
+    assert float(c1) == pytest.approx(float(c1_exact), rel=1e-12, abs=0)
     le, ae, ve = mag.effective_parameters(c1, c2)
     assert float(le) * 1e3 == pytest.approx(60.1802, abs=5e-5)  # references.md §8, (b)
     assert float(ae) * 1e6 == pytest.approx(48.9268, abs=5e-5)
@@ -38,21 +38,21 @@ def test_ring_al_equals_amperes_law(inner, ratio, height, mu):
     """µ0 µr Ae/le equals ∫ µ0 µr h dr/(2πr) = µ0 µr h ln(OD/ID)/(2π) (Ampère's law; references.md §8)."""
     le, ae, _ = mag.effective_parameters(*mag.ring_core_constants(inner, inner * ratio, height))
     exact = mu_0 * mu * height * math.log(ratio) / (2 * math.pi)
-    assert float(mag.al_value(mu, ae, le)) == pytest.approx(exact, rel=1e-12)
+    assert float(mag.al_value(mu, ae, le)) == pytest.approx(exact, rel=1e-12, abs=0)
 
 
 def test_gapped_al_published_relation_and_limits():
     """AL = µ0 Ae/(lg + le/µr): 239.359 nH and µe = 95.238 for the references.md §8 example; limits."""
     ae, le, mu = 100e-6, 50e-3, 2000.0
     al = float(mag.gapped_al(ae, le, 0.5e-3, mu))
-    assert al * 1e9 == pytest.approx(mu_0 * ae / (0.5e-3 + le / mu) * 1e9, rel=1e-14)
+    assert al * 1e9 == pytest.approx(mu_0 * ae / (0.5e-3 + le / mu) * 1e9, rel=1e-14, abs=0)
     assert al * 1e9 == pytest.approx(239.359, abs=5e-4)
     effective_mu = al * le / (mu_0 * ae)
     assert effective_mu == pytest.approx(95.238, abs=5e-4)
     # no gap: the ungapped core's µ0 µr Ae/le (5026.5 nH)
     assert float(mag.gapped_al(ae, le, 0.0, mu)) == pytest.approx(float(mag.al_value(mu, ae, le)))
     # a gap dominating the path: the air gap alone, µ0 Ae/lg
-    assert float(mag.gapped_al(ae, le, 5e-3, 1e9)) == pytest.approx(mu_0 * ae / 5e-3, rel=1e-6)
+    assert float(mag.gapped_al(ae, le, 5e-3, 1e9)) == pytest.approx(mu_0 * ae / 5e-3, rel=1e-6, abs=0)
 
 
 def test_fringing_factor_worked_value():
@@ -73,8 +73,8 @@ def test_flux_density_hand_worked():
 def test_sine_flux_density_transformer_equation():
     """B_peak = V_rms/(4.44 f N Ae) (the transformer equation; 4.44 = 2π/√2 rounded)."""
     value = float(mag.sine_peak_flux_density(230.0, 50.0, 1000, 4e-4))
-    assert value == pytest.approx(230.0 / (2 * math.pi / math.sqrt(2) * 50 * 1000 * 4e-4), rel=1e-14)
-    assert value == pytest.approx(230.0 / (4.44 * 50 * 1000 * 4e-4), rel=1e-3)
+    assert value == pytest.approx(230.0 / (2 * math.pi / math.sqrt(2) * 50 * 1000 * 4e-4), rel=1e-14, abs=0)
+    assert value == pytest.approx(230.0 / (4.44 * 50 * 1000 * 4e-4), rel=1e-3, abs=0)
 
 
 def test_chamfered_ring_against_quadrature():
@@ -97,7 +97,7 @@ def test_chamfered_ring_against_quadrature():
     i1 = mp.quad(lambda r: height(r) / r, nodes)
     i2 = mp.quad(lambda r: height(r) / r**2, nodes)
     c1, c2 = mag.ring_core_constants(15e-3, 25e-3, 10e-3, 1e-3)
-    assert float(c1) == pytest.approx(float(2 * mp.pi / i1), rel=1e-12)
-    assert float(c2) == pytest.approx(float(2 * mp.pi * i2 / i1**3), rel=1e-12)
+    assert float(c1) == pytest.approx(float(2 * mp.pi / i1), rel=1e-12, abs=0)
+    assert float(c2) == pytest.approx(float(2 * mp.pi * i2 / i1**3), rel=1e-12, abs=0)
     area = float(mp.quad(height, nodes))
-    assert area == pytest.approx(50e-6 - 2 * 1e-6, rel=1e-12)
+    assert area == pytest.approx(50e-6 - 2 * 1e-6, rel=1e-12, abs=0)
