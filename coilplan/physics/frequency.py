@@ -57,10 +57,10 @@ from fractions import Fraction
 
 import numpy as np
 from scipy.constants import epsilon_0, mu_0
-from scipy.interpolate import PchipInterpolator
 from scipy.special import jve
 
 from coilplan.errors import OutsideValidityWarning
+from coilplan.physics._pchip import pchip_evaluate, pchip_slopes
 
 __all__ = [
     "apparent_inductance_and_resistance",
@@ -121,7 +121,7 @@ _MEDHURST_TABLE = (
 )
 _MEDHURST_LOG_X = np.log([row[0] for row in _MEDHURST_TABLE])
 _MEDHURST_LOG_H = np.log([row[1] for row in _MEDHURST_TABLE])
-_MEDHURST_PCHIP = PchipInterpolator(_MEDHURST_LOG_X, _MEDHURST_LOG_H, extrapolate=False)
+_MEDHURST_SLOPES = pchip_slopes(_MEDHURST_LOG_X, _MEDHURST_LOG_H)
 # power laws through the two end points at either side, for extrapolation
 _MEDHURST_SLOPE_LOW = (_MEDHURST_LOG_H[1] - _MEDHURST_LOG_H[0]) / (_MEDHURST_LOG_X[1] - _MEDHURST_LOG_X[0])
 _MEDHURST_SLOPE_HIGH = (_MEDHURST_LOG_H[-1] - _MEDHURST_LOG_H[-2]) / (_MEDHURST_LOG_X[-1] - _MEDHURST_LOG_X[-2])
@@ -153,8 +153,8 @@ def medhurst_h(length_over_diameter):
     -----
     The table [Medhurst1947]_ (16 points, module constant ``_MEDHURST_TABLE``
     with the address of each row) is interpolated, not fitted: a monotone
-    piecewise cubic (scipy's PCHIP) through (ln l/D, ln H), which passes through
-    every table point exactly and keeps the flat minimum at l/D 0.8 to 1.0 flat.
+    piecewise cubic (PCHIP: scipy's construction, coded in coilplan.physics._pchip)
+    through (ln l/D, ln H), which passes through every table point exactly and keeps the flat minimum at l/D 0.8 to 1.0 flat.
     Outside 0.1 to 50 the value follows the power law through the two end
     points on that side (log-log linear extrapolation), with a warning.
 
@@ -182,7 +182,7 @@ def medhurst_h(length_over_diameter):
     if np.any(below | above):
         warnings.warn("Medhurst's table covers l/D from 0.1 to 50; outside it H is extrapolated "
                       "as a power law through the two end points", OutsideValidityWarning, stacklevel=2)
-    log_h = _MEDHURST_PCHIP(np.clip(log_x, low, high))
+    log_h = pchip_evaluate(_MEDHURST_LOG_X, _MEDHURST_LOG_H, _MEDHURST_SLOPES, np.clip(log_x, low, high))
     log_h = np.where(below, _MEDHURST_LOG_H[0] + _MEDHURST_SLOPE_LOW * (log_x - low), log_h)
     log_h = np.where(above, _MEDHURST_LOG_H[-1] + _MEDHURST_SLOPE_HIGH * (log_x - high), log_h)
     log_h = np.where(x > 0, log_h, np.nan)  # zero, negative or NaN ratio

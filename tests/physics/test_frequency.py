@@ -408,3 +408,18 @@ def test_kernels_are_nan_transparent():
     assert np.isnan(fq.solenoid_proximity_factor(nan, 1e-3, 1e6, RHO_CU))
     assert np.isnan(fq.litz_resistance_ratio(nan, 10, 1e5, RHO_CU))
     assert np.isnan(fq.coil_impedance(nan, 1e-6, 1.0, 1e-12).real)
+
+
+def test_own_pchip_equals_scipys():
+    """Our monotone cubic is scipy.interpolate.PchipInterpolator's (the reference library), to rounding."""
+    from scipy.interpolate import PchipInterpolator
+
+    from coilplan.physics._pchip import pchip_evaluate, pchip_slopes
+
+    rng = np.random.default_rng(7)
+    for _ in range(20):
+        x = np.cumsum(rng.uniform(0.1, 2.0, 12))
+        y = np.cumsum(rng.normal(0.0, 1.0, 12))
+        points = np.linspace(x[0], x[-1], 501)
+        ours = pchip_evaluate(x, y, pchip_slopes(x, y), points)
+        assert np.allclose(ours, PchipInterpolator(x, y)(points), rtol=1e-12, atol=1e-12)
