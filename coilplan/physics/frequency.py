@@ -154,7 +154,8 @@ def medhurst_h(length_over_diameter):
     The table [Medhurst1947]_ (16 points, module constant ``_MEDHURST_TABLE``
     with the address of each row) is interpolated, not fitted: a monotone
     piecewise cubic (PCHIP: scipy's construction, coded in coilplan.physics._pchip)
-    through (ln l/D, ln H), which passes through every table point exactly and keeps the flat minimum at l/D 0.8 to 1.0 flat.
+    through (ln l/D, ln H), which passes through every table point exactly and
+    keeps the flat minimum at l/D 0.8 to 1.0 flat.
     Outside 0.1 to 50 the value follows the power law through the two end
     points on that side (log-log linear extrapolation), with a warning.
 
