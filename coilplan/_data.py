@@ -3,9 +3,15 @@
 Each table is plain text: ``#`` lines are comments (the first ones name the
 standard or source and its edition), the first other line is the header, and
 every row carries a ``source`` column. A table is read once per process
-(:func:`functools.cache`) and each row is validated by a pydantic row model;
-a bad row raises :class:`~coilplan.errors.DataFileError` naming the file, the
-1-based line and the column.
+(:func:`functools.cache`) and each row is validated by a row model; a bad row
+raises :class:`~coilplan.errors.DataFileError` naming the file, the 1-based
+line and the column.
+
+A row model is either a pydantic model or a frozen dataclass whose fields
+carry their rules as metadata (``gt``, ``ge``, ``lt``, ``pattern``,
+``choices``, ``min_length``). The dataclass form serves the tables every
+command reads (the wire tables): pydantic takes longer to import than the rest
+of a plain solve, so the start-up path does without it.
 
 The tables live in the repository's ``core_data/`` folder. An installed
 package carries them as ``coilplan.core_data`` (pyproject.toml maps the
@@ -16,18 +22,104 @@ loader falls back to ``core_data/`` beside the package folder.
 from __future__ import annotations
 
 import csv
+import dataclasses
 import functools
 import importlib.resources
+import math
+import re
+import types
+import typing
 from pathlib import Path
 from typing import TypeVar
 
-import pydantic
-
 from coilplan.errors import DataFileError
 
-__all__ = ["load_table", "parse_table", "read_data_text"]
+__all__ = ["RowError", "load_table", "parse_table", "read_data_text", "rule"]
 
-Row = TypeVar("Row", bound=pydantic.BaseModel)
+Row = TypeVar("Row")
+
+
+class RowError(ValueError):
+    """Raised by a dataclass row's ``__post_init__`` for a rule across columns."""
+
+    def __init__(self, column: str, problem: str):
+        super().__init__(column, problem)
+        self.column = column
+        self.problem = problem
+
+
+def rule(default=dataclasses.MISSING, **checks):
+    """A dataclass field with validation rules, e.g. ``rule(gt=0, lt=1)`` or ``rule(None, gt=0)``."""
+    return dataclasses.field(default=default, metadata=checks)
+
+
+def _field_types(row_model) -> dict[str, tuple[type, bool]]:
+    """Column name -> (value type, may be empty) for a dataclass row model."""
+    hints = typing.get_type_hints(row_model)
+    result = {}
+    for item in dataclasses.fields(row_model):
+        hint = hints[item.name]
+        optional = False
+        if isinstance(hint, types.UnionType) or typing.get_origin(hint) is typing.Union:
+            arguments = [a for a in typing.get_args(hint) if a is not type(None)]
+            optional = len(arguments) < len(typing.get_args(hint))
+            hint = arguments[0]
+        result[item.name] = (hint, optional)
+    return result
+
+
+def _cell(value: str | None, kind: type, optional: bool, checks: dict):
+    """One cell converted and checked; ValueError with the reason."""
+    if value is None:
+        if optional:
+            return None
+        raise ValueError("a value is required")
+    if kind is float:
+        try:
+            number = float(value)
+        except ValueError:
+            raise ValueError("expected a number") from None
+        if not math.isfinite(number):
+            raise ValueError("expected a finite number")
+        for name, test, word in (("gt", number.__gt__, "above"), ("ge", number.__ge__, "at least"),
+                                 ("lt", number.__lt__, "below")):
+            if name in checks and not test(checks[name]):
+                raise ValueError(f"expected a number {word} {checks[name]:g}")
+        return number
+    text = str(value)
+    if len(text) < checks.get("min_length", 0):
+        raise ValueError(f"expected at least {checks['min_length']} characters")
+    if "pattern" in checks and not re.fullmatch(checks["pattern"], text):
+        raise ValueError("does not match the expected form")
+    if "choices" in checks and text not in checks["choices"]:
+        raise ValueError(f"expected one of {', '.join(checks['choices'])}")
+    return text
+
+
+def _dataclass_row(row_model, record: dict, file_name: str, number: int):
+    types_ = _field_types(row_model)
+    values = {}
+    for item in dataclasses.fields(row_model):
+        if item.name not in record:
+            continue
+        kind, optional = types_[item.name]
+        try:
+            values[item.name] = _cell(record[item.name], kind, optional, dict(item.metadata))
+        except ValueError as error:
+            raise DataFileError(file_name, number, item.name,
+                                f"{error} (got {record[item.name]!r})") from None
+    try:
+        return row_model(**values)
+    except RowError as error:
+        raise DataFileError(file_name, number, error.column, error.problem) from None
+
+
+def _columns(row_model) -> dict[str, bool]:
+    """Column name -> required, for either kind of row model."""
+    if dataclasses.is_dataclass(row_model):
+        return {item.name: item.default is dataclasses.MISSING and item.default_factory is dataclasses.MISSING
+                for item in dataclasses.fields(row_model)}
+    return {name: field.is_required() for name, field in row_model.model_fields.items()}
 
 _CHECKOUT_DATA = Path(__file__).resolve().parent.parent / "core_data"
 
@@ -65,7 +157,7 @@ def parse_table(text: str, file_name: str, row_model: type[Row]) -> tuple[Row, .
         The file's text.
     file_name : str
         The name used in error messages.
-    row_model : type of pydantic.BaseModel
+    row_model : dataclass type or pydantic model
         One row; its field names are the column names.
 
     Returns
@@ -81,9 +173,10 @@ def parse_table(text: str, file_name: str, row_model: type[Row]) -> tuple[Row, .
 
     Examples
     --------
-    >>> class Point(pydantic.BaseModel):
-    ...     x_mm: float
-    ...     source: str
+    >>> @dataclasses.dataclass(frozen=True)
+    ... class Point:
+    ...     x_mm: float = rule(gt=0)
+    ...     source: str = rule(min_length=1)
     >>> parse_table("# demo\\nx_mm,source\\n1.5,invented\\n", "demo.csv", Point)
     (Point(x_mm=1.5, source='invented'),)
     """
@@ -93,13 +186,13 @@ def parse_table(text: str, file_name: str, row_model: type[Row]) -> tuple[Row, .
         raise DataFileError(file_name, 1, "(header)", "the file has no header line")
     header_number, header_line = lines[0]
     header = [cell.strip() for cell in next(csv.reader([header_line]))]
-    fields = row_model.model_fields
+    fields = _columns(row_model)
     for name in header:
         if name not in fields:
             raise DataFileError(file_name, header_number, name,
                                 f"unknown column; expected {', '.join(fields)}")
-    for name, field in fields.items():
-        if field.is_required() and name not in header:
+    for name, required in fields.items():
+        if required and name not in header:
             raise DataFileError(file_name, header_number, name, "required column is missing")
     rows = []
     for number, line in lines[1:]:
@@ -109,6 +202,11 @@ def parse_table(text: str, file_name: str, row_model: type[Row]) -> tuple[Row, .
                                 f"{len(cells)} cells, but the header has {len(header)}")
         record = {name: (cell if cell != "" else None)
                   for name, cell in zip(header, cells, strict=True)}
+        if dataclasses.is_dataclass(row_model):
+            rows.append(_dataclass_row(row_model, record, file_name, number))
+            continue
+        import pydantic  # only for pydantic row models, off the start-up path
+
         try:
             rows.append(row_model.model_validate(record))
         except pydantic.ValidationError as error:
@@ -128,7 +226,7 @@ def load_table(file_name: str, row_model: type[Row]) -> tuple[Row, ...]:
     ----------
     file_name : str
         File name inside ``core_data/``, e.g. ``"swg.csv"``.
-    row_model : type of pydantic.BaseModel
+    row_model : dataclass type or pydantic model
         The model of one row (see :func:`parse_table`).
 
     Returns
@@ -142,10 +240,11 @@ def load_table(file_name: str, row_model: type[Row]) -> tuple[Row, ...]:
 
     Examples
     --------
-    >>> class GaugeRow(pydantic.BaseModel):
+    >>> @dataclasses.dataclass(frozen=True)
+    ... class GaugeRow:
     ...     gauge: str
-    ...     diameter_in: float
-    ...     source: str
+    ...     diameter_in: float = rule(gt=0)
+    ...     source: str = rule(min_length=1)
     >>> rows = load_table("swg.csv", GaugeRow)
     >>> rows[0].gauge, rows[0].diameter_in, rows[-1].gauge
     ('7/0', 0.5, '50')

@@ -24,6 +24,7 @@ beyond them extrapolated, and a :class:`Wire` says when that happened.
 
 from __future__ import annotations
 
+import dataclasses
 import difflib
 import functools
 import math
@@ -32,9 +33,8 @@ import warnings
 from typing import Literal, NamedTuple
 
 import numpy as np
-from pydantic import BaseModel, ConfigDict, Field, model_validator
 
-from coilplan._data import load_table
+from coilplan._data import RowError, load_table, rule
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.quantities import format_length, parse_quantity
 
@@ -243,11 +243,11 @@ def awg_diameter(gauge):
     return (0.127e-3 * 92.0 ** ((36.0 - np.asarray(number, dtype=float)) / 39.0))[()]
 
 
-class _SwgRow(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True)
-    gauge: str = Field(pattern=r"^(?:[1-7]/0|[1-9]\d?)$")
-    diameter_in: float = Field(gt=0, lt=1)
-    source: str = Field(min_length=1)
+@dataclasses.dataclass(frozen=True)
+class _SwgRow:
+    gauge: str = rule(pattern=r"^(?:[1-7]/0|[1-9]\d?)$")
+    diameter_in: float = rule(gt=0, lt=1)
+    source: str = rule(min_length=1)
 
 
 @functools.cache
@@ -314,25 +314,23 @@ def swg_diameter(gauge, option: str = "--wire") -> float:
 # --------------------------------------------------------------------------- enamel
 
 
-class _EnamelRow(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True)
-    nominal_diameter_mm: float = Field(gt=0)
-    grade1_min_increase_mm: float | None = Field(default=None, gt=0)
-    grade1_max_overall_mm: float | None = Field(default=None, gt=0)
-    grade2_min_increase_mm: float | None = Field(default=None, gt=0)
-    grade2_max_overall_mm: float | None = Field(default=None, gt=0)
-    grade3_min_increase_mm: float | None = Field(default=None, gt=0)
-    grade3_max_overall_mm: float | None = Field(default=None, gt=0)
-    source: str = Field(min_length=1)
+@dataclasses.dataclass(frozen=True)
+class _EnamelRow:
+    nominal_diameter_mm: float = rule(gt=0)
+    source: str = rule(min_length=1)
+    grade1_min_increase_mm: float | None = rule(None, gt=0)
+    grade1_max_overall_mm: float | None = rule(None, gt=0)
+    grade2_min_increase_mm: float | None = rule(None, gt=0)
+    grade2_max_overall_mm: float | None = rule(None, gt=0)
+    grade3_min_increase_mm: float | None = rule(None, gt=0)
+    grade3_max_overall_mm: float | None = rule(None, gt=0)
 
-    @model_validator(mode="after")
-    def _overall_above_bare(self):
+    def __post_init__(self):
         for grade in "123":
             largest = getattr(self, f"grade{grade}_max_overall_mm")
             if largest is not None and largest <= self.nominal_diameter_mm:
-                raise ValueError(f"grade {grade} maximum overall diameter must exceed the "
-                                 "nominal diameter")
-        return self
+                raise RowError(f"grade{grade}_max_overall_mm", f"grade {grade} maximum overall diameter must "
+                               "exceed the nominal diameter")
 
 
 class _LogLogColumn:
@@ -487,7 +485,8 @@ def enamel_build(diameter, grade="1") -> EnamelBuild:
 # --------------------------------------------------------------------------- the record
 
 
-class Wire(BaseModel):
+@dataclasses.dataclass(frozen=True)
+class Wire:
     """One round solid copper wire: its name, bare and overall diameters (SI units).
 
     Build one with :func:`parse_wire` or take rows from :func:`wire_table`.
@@ -511,24 +510,38 @@ class Wire(BaseModel):
         The enamel figures came from beyond the rows of the partial table.
     """
 
-    model_config = ConfigDict(extra="forbid", frozen=True)
-
-    label: str = Field(min_length=1)
+    label: str
     series: Literal["awg", "swg", "metric", "diameter"]
-    diameter: float = Field(gt=0, allow_inf_nan=False)
-    overall_diameter: float = Field(gt=0, allow_inf_nan=False)
-    max_overall_diameter: float | None = Field(default=None, gt=0, allow_inf_nan=False)
+    diameter: float
+    overall_diameter: float
     grade: Literal["1", "2", "3", "bare", "measured"]
+    max_overall_diameter: float | None = None
     enamel_extrapolated: bool = False
 
-    @model_validator(mode="after")
-    def _diameters_in_order(self):
+    def __post_init__(self):
+        """Refuse a record that cannot be (a frozen record with its rules, checked once)."""
+        if not self.label:
+            raise ValueError("label must not be empty")
+        if self.series not in ("awg", "swg", "metric", "diameter"):
+            raise ValueError(f"series must be awg, swg, metric or diameter; got {self.series!r}")
+        if self.grade not in ("1", "2", "3", "bare", "measured"):
+            raise ValueError(f"grade must be 1, 2, 3, bare or measured; got {self.grade!r}")
+        for name in ("diameter", "overall_diameter", "max_overall_diameter"):
+            value = getattr(self, name)
+            if value is None:
+                continue
+            try:
+                value = float(value)  # plain floats: numpy scalars would leak into JSON
+            except (TypeError, ValueError):
+                raise ValueError(f"{name} must be a length in metres; got {value!r}") from None
+            if not (math.isfinite(value) and value > 0):
+                raise ValueError(f"{name} must be a finite length above zero; got {value!r}")
+            object.__setattr__(self, name, value)
         if self.overall_diameter < self.diameter:
             raise ValueError("overall_diameter must be at least the bare diameter")
         largest = self.max_overall_diameter
         if largest is not None and largest < self.overall_diameter:
             raise ValueError("max_overall_diameter must be at least overall_diameter")
-        return self
 
     @property
     def area(self) -> float:
@@ -718,11 +731,11 @@ def parse_wire(text: str, grade="1", overall: float | None = None, option: str =
 # --------------------------------------------------------------------------- tables
 
 
-class _MetricRow(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True)
-    nominal_diameter_mm: float = Field(gt=0, lt=20)
-    renard: Literal["R20", "R40"]
-    source: str = Field(min_length=1)
+@dataclasses.dataclass(frozen=True)
+class _MetricRow:
+    nominal_diameter_mm: float = rule(gt=0, lt=20)
+    renard: str = rule(choices=("R20", "R40"))
+    source: str = rule(min_length=1)
 
 
 @functools.cache

@@ -53,3 +53,18 @@ def test_every_subpackage_ships():
     listed = set(tomllib.loads((root / "pyproject.toml").read_text())["tool"]["setuptools"]["packages"])
     found = {".".join(path.parent.relative_to(root).parts) for path in (root / "coilplan").rglob("__init__.py")}
     assert found <= listed
+
+
+def test_solve_path_imports_nothing_heavy():
+    """The solenoid command's import path leaves out pydantic, matplotlib and the heavy scipy parts.
+
+    Start-up time is a benchmark goal (tests/benchmarks); this keeps the cause of a regression visible.
+    """
+    import subprocess
+    import sys
+
+    probe = ("import sys, coilplan.cli.solenoid; "
+             "print(' '.join(m for m in ('pydantic', 'matplotlib', 'scipy.interpolate', 'scipy.optimize', "
+             "'scipy.linalg', 'scipy.integrate') if m in sys.modules))")
+    loaded = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, check=True).stdout
+    assert loaded.strip() == ""
