@@ -78,6 +78,8 @@ class Conditions:
         The frequency the coil will work at, Hz.
     self_capacitance : float, optional
         The coil's self-capacitance, F (taken the same at every reading).
+    self_capacitance_estimated : bool
+        True when ``self_capacitance`` is the form's own estimate, not a value given.
     turns_uncertainty : float
         ± turns on the counts of the readings (0: counted exactly).
     """
@@ -87,6 +89,7 @@ class Conditions:
     meter_frequency: float | None = None
     operating_frequency: float | None = None
     self_capacitance: float | None = None
+    self_capacitance_estimated: bool = False
     turns_uncertainty: float = 0.0
 
 

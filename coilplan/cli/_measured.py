@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
+import dataclasses
 import functools
 
 import click
 
+from coilplan.apparent import has_frequency_model
 from coilplan.calibrate import ScaledForm
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import InvalidInputError
@@ -48,6 +50,14 @@ def calibrate_form(build, readings, conditions: Conditions, kind: str):
     if not readings:
         return build(None), None
     readings = list(readings)
+    frequencies_given = conditions.meter_frequency is not None or conditions.operating_frequency is not None
+    if conditions.self_capacitance is None and frequencies_given:
+        # no measured self-capacitance: the form's own estimate for the coil as it is now
+        estimate = build(1.0 if kind == "al" else None)  # geometry only: C(N) does not depend on AL
+        if has_frequency_model(estimate):
+            turns_now = readings[-1][1]
+            conditions = dataclasses.replace(conditions, self_capacitance=float(estimate.self_capacitance(turns_now)),
+                                             self_capacitance_estimated=True)
     low = low_frequency_readings(readings, conditions)
     if kind == "al":
         fit = closed_core_fit(low)

@@ -48,12 +48,15 @@ def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
               show_default=True, help="Inductance method (see the README for accuracy).")
 @click.option("--measured", "measured", type=MeasurementType(), multiple=True,
               help="A reading L@N on this coil, e.g. 47uH@30 (repeatable): calibrates the model.")
-@click.option("--at", "frequency", type=QuantityType("Hz"), help="Operating frequency (with --self-capacitance).")
+@click.option("--at", "frequency", type=QuantityType("Hz"),
+              help="Operating frequency: the target is the inductance the coil shows there; adds SRF, R and Q.")
+@click.option("--former-permittivity", type=click.FloatRange(min=1.0), default=1.0, show_default=True,
+              help="Relative permittivity of the former, for the self-capacitance (solid polystyrene about 2.5).")
 @measurement_options
 @json_option
 def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, length, max_length,
-             lead, temperature, method, measured, frequency, meter_freq, tolerance, self_capacitance,
-             turns_uncertainty, as_json):
+             lead, temperature, method, measured, frequency, former_permittivity, meter_freq, tolerance,
+             self_capacitance, turns_uncertainty, as_json):
     """Single-layer air-core coil on a round former.
 
     Forward: --turns N gives the inductance. Inverse: --target gives the whole
@@ -69,12 +72,12 @@ def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, 
 
     def build(_):
         return Solenoid(diameter=coil_diameter, wire=wire, pitch=pitch, length=length,
-                        max_length=max_length, lead=lead, method=method)
+                        max_length=max_length, lead=lead, method=method, former_permittivity=former_permittivity)
 
     with captured_warnings() as warnings_:
         form, readings = calibrate_form(build, measured, conditions, "scale")
         result = solenoid_result(form, turns=turns, target=target, temperature_C=temperature,
-                                 former_diameter=former, measured=readings)
+                                 former_diameter=former, measured=readings, frequency=frequency)
     inputs = {
         "turns": turns, "target_H": target, "former_diameter_m": former, "diameter_m": diameter,
         "wire": wire_text, "grade": grade, "overall_diameter_m": overall, "pitch_m": pitch,

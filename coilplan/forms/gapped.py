@@ -9,9 +9,16 @@ import numpy as np
 
 from coilplan.errors import InfeasibleError, InvalidInputError
 from coilplan.forms._checks import positive
+from coilplan.physics.frequency import (
+    dowell_delta,
+    dowell_factor,
+    multilayer_self_capacitance,
+    round_wire_resistance_ratio,
+    skin_depth,
+)
 from coilplan.physics.magnetic import fringing_factor, gapped_al, peak_flux_density
 from coilplan.quantities import format_length, format_quantity
-from coilplan.wire import Wire
+from coilplan.wire import Wire, copper_resistivity
 
 __all__ = ["GappedCore"]
 
@@ -178,6 +185,33 @@ class GappedCore:
     def resistance(self, turns, temperature_C: float = 20.0):
         """DC resistance of the wire to cut, ohm."""
         return self.wire_length(turns) * self.wire.resistance_per_metre(temperature_C)
+
+    def layers(self, turns) -> np.ndarray:
+        """Layers the winding takes (1 when no window width is given)."""
+        per_layer = self.turns_per_layer()
+        turns = np.asarray(turns, dtype=float)
+        return np.ones_like(turns) if per_layer is None else np.ceil(turns / per_layer)
+
+    def self_capacitance(self, turns):
+        """Self-capacitance, F: the layer-to-layer estimate of a layered winding (rough, tens of percent)."""
+        d = self.wire.overall_diameter
+        layers = self.layers(turns)
+        mean_diameter = 2.0 * (math.sqrt(self.ae / math.pi) + layers * d / 2.0)
+        width = self.window_width if self.window_width is not None else d * np.asarray(turns, dtype=float)
+        gap = (d - self.wire.diameter) + 0.2 * d  # enamel both sides plus a fifth of a wire: touching round wire
+        return multilayer_self_capacitance(mean_diameter, width, layers, gap, permittivity=3.0)
+
+    def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
+        """Resistance at ``frequency``, ohm: Dowell's factor for the winding's layers (porosity included)."""
+        resistivity = copper_resistivity(temperature_C)
+        depth = skin_depth(frequency, resistivity)
+        per_layer = self.turns_per_layer()
+        if per_layer is None:  # no window: one layer, the isolated wire's skin effect
+            factor = round_wire_resistance_ratio(self.wire.diameter / 2.0, frequency, resistivity)
+        else:
+            delta = dowell_delta(self.wire.diameter, depth, per_layer, self.window_width)
+            factor = dowell_factor(delta, self.layers(turns))
+        return self.resistance(turns, temperature_C) * factor
 
     def core_area(self) -> float:
         """Effective cross-section Ae, m²."""

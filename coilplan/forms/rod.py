@@ -10,10 +10,11 @@ from scipy.constants import mu_0
 
 from coilplan.errors import InvalidInputError
 from coilplan.forms._checks import positive
+from coilplan.physics.frequency import knight_self_capacitance, solenoid_proximity_factor
 from coilplan.physics.rod import rod_coil_inductance, rod_permeability
 from coilplan.physics.solenoid import current_sheet_inductance
 from coilplan.quantities import format_length
-from coilplan.wire import Wire
+from coilplan.wire import Wire, copper_resistivity
 
 __all__ = ["RodCoil"]
 
@@ -161,6 +162,20 @@ class RodCoil:
 
     def resistance(self, turns, temperature_C: float = 20.0):
         return self.wire_length(turns) * self.wire.resistance_per_metre(temperature_C)
+
+    def self_capacitance(self, turns):
+        """Self-capacitance, F: Knight's formula for the winding, the rod taken as the former
+        (ferrite's permittivity, order 10 for NiZn, common practice, no source, raises it; rough)."""
+        turns = np.asarray(turns, dtype=float)
+        return knight_self_capacitance(self.coil_diameter, self.sheet_length(turns), self.pitch_at(turns),
+                                       former_permittivity=1.0 if self.former_diameter else 10.0)
+
+    def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
+        """Resistance at ``frequency``, ohm: DC × the skin and proximity factor of the single layer
+        (the rod's own loss is not included)."""
+        factor = solenoid_proximity_factor(self.wire.diameter, self.pitch_at(turns), frequency,
+                                           copper_resistivity(temperature_C))
+        return self.resistance(turns, temperature_C) * factor
 
     def core_area(self) -> float:
         return math.pi * self.rod_diameter**2 / 4.0

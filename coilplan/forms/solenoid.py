@@ -12,8 +12,13 @@ import numpy as np
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.forms._checks import positive as _positive
 from coilplan.physics import loops, solenoid
+from coilplan.physics.frequency import (
+    knight_self_capacitance,
+    medhurst_self_capacitance,
+    solenoid_proximity_factor,
+)
 from coilplan.quantities import format_length
-from coilplan.wire import Wire
+from coilplan.wire import Wire, copper_resistivity
 
 __all__ = ["SOLENOID_METHODS", "Solenoid", "SolenoidMethod"]
 
@@ -61,6 +66,9 @@ class Solenoid:
         Lead allowance per end, m, added twice to the wire to cut.
     method : str
         One of :data:`SOLENOID_METHODS`.
+    former_permittivity : float
+        Relative permittivity of the former, for the self-capacitance (1: air or
+        a thin tube; about 2.5 for solid polystyrene, as Medhurst's formers).
     """
 
     diameter: float
@@ -70,8 +78,12 @@ class Solenoid:
     max_length: float | None = None
     lead: float = 0.0
     method: SolenoidMethod = "nagaoka-rosa"
+    former_permittivity: float = 1.0
 
     def __post_init__(self) -> None:
+        if not (math.isfinite(self.former_permittivity) and self.former_permittivity >= 1):
+            raise InvalidInputError("--former-permittivity", "a relative permittivity of at least 1",
+                                    self.former_permittivity)
         _positive(self.diameter, "--diameter", "a coil diameter")
         _positive(self.pitch, "--pitch", "a pitch")
         _positive(self.length, "--length", "a winding length")
@@ -193,6 +205,23 @@ class Solenoid:
     def resistance(self, turns, temperature_C: float = 20.0):
         """DC resistance of the wire to cut, ohm, at ``temperature_C``."""
         return self.wire_length(turns) * self.wire.resistance_per_metre(temperature_C)
+
+    def self_capacitance(self, turns):
+        """Self-capacitance, F, by Knight's formula with the former's permittivity."""
+        turns = np.asarray(turns, dtype=float)
+        return knight_self_capacitance(self.diameter, self.sheet_length(turns), self.pitch_at(turns),
+                                       former_permittivity=self.former_permittivity)
+
+    def medhurst_self_capacitance(self, turns):
+        """Self-capacitance, F, by Medhurst's table (his coils were on solid polystyrene formers)."""
+        turns = np.asarray(turns, dtype=float)
+        return medhurst_self_capacitance(self.diameter, self.sheet_length(turns))
+
+    def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
+        """Resistance at ``frequency``, ohm: DC resistance × the skin and proximity factor of the winding."""
+        factor = solenoid_proximity_factor(self.wire.diameter, self.pitch_at(turns), frequency,
+                                           copper_resistivity(temperature_C))
+        return self.resistance(turns, temperature_C) * factor
 
     def validity_warnings(self, turns: float) -> None:
         """Warn (OutsideValidityWarning) where the method is used outside its stated range."""

@@ -10,9 +10,10 @@ import numpy as np
 
 from coilplan.errors import InvalidInputError
 from coilplan.forms._checks import positive
+from coilplan.physics.frequency import round_wire_resistance_ratio, toroid_self_capacitance
 from coilplan.physics.magnetic import al_value, effective_parameters, peak_flux_density, ring_core_constants
 from coilplan.quantities import format_length
-from coilplan.wire import Wire
+from coilplan.wire import Wire, copper_resistivity
 
 __all__ = ["Toroid", "ToroidLayers"]
 
@@ -174,6 +175,19 @@ class Toroid:
     def resistance(self, turns, temperature_C: float = 20.0):
         """DC resistance of the wire to cut, ohm."""
         return self.wire_length(turns) * self.wire.resistance_per_metre(temperature_C)
+
+    def self_capacitance(self, turns):
+        """Self-capacitance, F: a rough turn-to-turn estimate (±50 %, see toroid_self_capacitance)."""
+        turns = np.asarray(turns, dtype=float)
+        pitch = np.pi * (self.inner_diameter - self.wire.overall_diameter) / np.maximum(turns, 2.0)
+        pitch = np.maximum(pitch, self.wire.overall_diameter)
+        return toroid_self_capacitance(np.maximum(turns, 2.0), self.wire_per_turn(), pitch, self.wire.diameter,
+                                       permittivity=2.0)
+
+    def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
+        """Resistance at ``frequency``, ohm: DC resistance × the isolated round wire's skin-effect ratio."""
+        ratio = round_wire_resistance_ratio(self.wire.diameter / 2.0, frequency, copper_resistivity(temperature_C))
+        return self.resistance(turns, temperature_C) * ratio
 
     def core_area(self) -> float:
         """Effective cross-section Ae, m²."""

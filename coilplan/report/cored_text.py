@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from coilplan.quantities import format_length, format_quantity
 from coilplan.report.text import aligned_rows, turns_word
-from coilplan.report.turns_rows import henry, turns_rows
+from coilplan.report.turns_rows import frequency_rows, henry, target_text, turns_rows
 
 __all__ = ["gapped_lines", "rod_lines", "toroid_lines"]
 
@@ -63,7 +63,7 @@ def _drive_rows(result: dict) -> list[tuple[str, ...]]:
 
 def toroid_lines(result: dict) -> list[str]:
     """Lines of the toroid report: the answer, the core's IEC 60205 figures, winding and drive."""
-    title = (f"Toroid for {henry(result['target_H'])}" if "target_H" in result
+    title = (f"Toroid for {target_text(result)}" if "target_H" in result
              else f"Toroid, {turns_word(result['turns'])}")
     rows = turns_rows(result)
     mu_note = "implied by the AL value" if result["mu_r_implied"] else ""
@@ -79,7 +79,7 @@ def toroid_lines(result: dict) -> list[str]:
         ("window holds", f"{turns_word(result['turns_window'])}", "layer on layer to the centre (theoretical)"),
         ("wire per turn", format_length(result["wire_per_turn_m"]), "first layer"),
     ]
-    rows += _winding_rows(result) + _drive_rows(result)
+    rows += _winding_rows(result) + frequency_rows(result) + _drive_rows(result)
     if result.get("matching_materials"):
         rows.append(("material classes", ", ".join(result["matching_materials"]),
                      "consistent with the permeability (see coilplan materials)"))
@@ -101,7 +101,7 @@ def gapped_lines(result: dict) -> list[str]:
         rows = [("gap", format_length(result["gap_m"]), "total in the magnetic path, computed"),
                 ("inductance", henry(result["inductance_H"]))]
     else:
-        title = (f"Gapped core for {henry(result['target_H'])}" if "target_H" in result
+        title = (f"Gapped core for {target_text(result)}" if "target_H" in result
                  else f"Gapped core, {turns_word(result['turns'])}")
         rows = turns_rows(result)
         if result["gap_m"] is not None:
@@ -122,13 +122,13 @@ def gapped_lines(result: dict) -> list[str]:
         rows.append(("turns per layer", f"{result['turns_per_layer']}"))
     if result["max_turns"] is not None:
         rows.append(("window holds", f"{turns_word(result['max_turns'])}", "layer winding"))
-    rows += _winding_rows(result) + _drive_rows(result)
+    rows += _winding_rows(result) + frequency_rows(result) + _drive_rows(result)
     return [title, "", *aligned_rows(rows)]
 
 
 def rod_lines(result: dict) -> list[str]:
     """Lines of the rod-coil report: the answer, the rod's effect, the winding and the model's standing."""
-    title = (f"Coil on a ferrite rod for {henry(result['target_H'])}" if "target_H" in result
+    title = (f"Coil on a ferrite rod for {target_text(result)}" if "target_H" in result
              else f"Coil on a ferrite rod, {turns_word(result['turns'])}")
     rows = turns_rows(result)
     rows += [
@@ -150,5 +150,5 @@ def rod_lines(result: dict) -> list[str]:
                      f"from the readings; residuals {residuals}"))
     else:
         rows.append(("model", "uncalibrated", "rough: tens of percent; add --measured L@N from a test winding"))
-    rows += _winding_rows(result) + _drive_rows(result)
+    rows += _winding_rows(result) + frequency_rows(result) + _drive_rows(result)
     return [title, "", *aligned_rows(rows)]

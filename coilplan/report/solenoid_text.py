@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from coilplan.quantities import format_length, format_quantity
 from coilplan.report.text import aligned_rows, turns_word
-from coilplan.report.turns_rows import henry, turns_rows
+from coilplan.report.turns_rows import frequency_rows, henry, target_text, turns_rows
 
 __all__ = ["solenoid_lines"]
 
@@ -28,7 +28,7 @@ def solenoid_lines(result: dict) -> list[str]:
     if "turns_now" in result:
         title = f"Single-layer air-core coil as measured, to {henry(result['target_H'])}"
     elif "target_H" in result:
-        title = f"Single-layer air-core coil for {henry(result['target_H'])}"
+        title = f"Single-layer air-core coil for {target_text(result)}"
     else:
         title = f"Single-layer air-core coil, {turns_word(turns)}"
     rows = turns_rows(result)
@@ -64,6 +64,7 @@ def solenoid_lines(result: dict) -> list[str]:
     if result["temperature_C"] != 20.0:
         rows.append(("", format_quantity(result["dc_resistance_at_temperature_ohm"], "ohm", 3),
                      f"at {result['temperature_C']:g} °C"))
+    rows += frequency_rows(result)
     rows.append(("method", result["method"], result["method_note"]))
     rows.append(("accuracy", result["method_accuracy"]))
     if "turns_now" in result:

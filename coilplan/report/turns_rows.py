@@ -5,12 +5,19 @@ from __future__ import annotations
 from coilplan.quantities import format_quantity
 from coilplan.report.text import turns_word
 
-__all__ = ["henry", "rewind_rows", "turns_rows"]
+__all__ = ["frequency_rows", "henry", "rewind_rows", "target_text", "turns_rows"]
 
 
 def henry(value: float) -> str:
     """An inductance to four significant digits."""
     return format_quantity(value, "H", 4)
+
+
+def target_text(result: dict) -> str:
+    """The target in words: ``10.00 μH``, or ``10.00 μH at 7.000 MHz`` when it is an apparent value there."""
+    if result.get("target_is_apparent"):
+        return f"{henry(result['target_H'])} at {format_quantity(result['target_frequency_Hz'], 'Hz', 4)}"
+    return henry(result["target_H"])
 
 
 def turns_rows(result: dict) -> list[tuple[str, ...]]:
@@ -25,8 +32,15 @@ def turns_rows(result: dict) -> list[tuple[str, ...]]:
         return [("inductance", henry(result["inductance_H"]))]
     if "turns_now" in result:
         return rewind_rows(result)
-    rows = [("wind", f"{turns_word(result['turns'])}", f"gives {henry(result['inductance_H'])}"),
-            ("exact solution", f"{result['turns_exact']:.3f} turns")]
+    if result.get("target_is_apparent"):
+        at = format_quantity(result["target_frequency_Hz"], "Hz", 4)
+        rows = [("wind", f"{turns_word(result['turns'])}",
+                 f"shows {henry(result['target_inductance_at_turns_H'])} at {at} "
+                 f"({henry(result['inductance_H'])} at low frequency)"),
+                ("exact solution", f"{result['turns_exact']:.3f} turns")]
+    else:
+        rows = [("wind", f"{turns_word(result['turns'])}", f"gives {henry(result['inductance_H'])}"),
+                ("exact solution", f"{result['turns_exact']:.3f} turns")]
     if result["turns_below"] != result["turns_above"]:
         rows.append(("whole turns either side",
                      f"{turns_word(result['turns_below'])}: {henry(result['inductance_below_H'])}",
@@ -65,4 +79,28 @@ def rewind_rows(result: dict) -> list[tuple[str, ...]]:
     rows.append(("how", result["explanation"]))
     for index, step in enumerate(result["plan"], start=1):
         rows.append((f"step {index}" if len(result["plan"]) > 1 else "plan", step))
+    return rows
+
+
+def frequency_rows(result: dict) -> list[tuple[str, ...]]:
+    """Self-capacitance, self-resonance and, at the operating frequency, apparent L, AC resistance and Q."""
+    if "self_capacitance_F" not in result:
+        return []
+    source = "measured, as given" if result.get("self_capacitance_source") == "given" else "estimate"
+    note = source
+    if "medhurst_self_capacitance_F" in result and source == "estimate":
+        permittivity = result.get("former_permittivity", 1.0)
+        note = (f"Knight, former permittivity {permittivity:g}; Medhurst's table gives "
+                f"{format_quantity(result['medhurst_self_capacitance_F'], 'F', 3)} (solid polystyrene formers)")
+    rows = [("self-capacitance", format_quantity(result["self_capacitance_F"], "F", 3), note),
+            ("self-resonance", format_quantity(result["srf_Hz"], "Hz", 3), "with that self-capacitance alone")]
+    if "frequency_Hz" in result and "q" in result:
+        at = format_quantity(result["frequency_Hz"], "Hz", 4)
+        if result["apparent_inductance_H"] == result["apparent_inductance_H"]:  # not NaN: below the SRF
+            rows.append((f"at {at}", henry(result["apparent_inductance_H"]), "apparent inductance"))
+        rows.append(("AC resistance", format_quantity(result["ac_resistance_ohm"], "ohm", 3),
+                     f"copper at {at}: skin and proximity effect"))
+        cored = "al_H" in result or "rod_permeability" in result
+        rows.append(("Q", f"{result['q']:.0f}", "ωL/R, copper loss only: the core's own loss, often the larger "
+                     "at RF, is not included" if cored else "ωL/R, copper loss only"))
     return rows

@@ -6,12 +6,13 @@ import math
 import warnings
 from dataclasses import dataclass
 
+from coilplan.apparent import ApparentForm, has_frequency_model
 from coilplan.errors import InfeasibleError, MeasurementWarning
 from coilplan.quantities import format_quantity
 from coilplan.rewind import Conditions, Fit, rewind_fields
 from coilplan.solve import solve_turns
 
-__all__ = ["Measured", "check_fits", "turns_block"]
+__all__ = ["Measured", "check_fits", "given_capacitance", "turns_block"]
 
 
 @dataclass(frozen=True)
@@ -23,7 +24,8 @@ class Measured:
     conditions: Conditions
 
 
-def turns_block(form, *, turns: int | None, target: float | None, measured: Measured | None = None) -> dict:
+def turns_block(form, *, turns: int | None, target: float | None, measured: Measured | None = None,
+                frequency: float | None = None) -> dict:
     """``turns`` checked against what fits, or solved for ``target``, as result fields.
 
     Returns ``turns`` and, for an inverse, ``target_H``, ``turns_exact``,
@@ -31,6 +33,9 @@ def turns_block(form, *, turns: int | None, target: float | None, measured: Meas
     With readings (``measured``) and a target, the answer is the rewind of the coil as
     it is now: :func:`coilplan.rewind.rewind_fields` (``turns_now``, ``turns_change``,
     ``turns_range`` ...), its warnings given as :class:`MeasurementWarning`.
+    With an operating ``frequency`` and a form that estimates its self-capacitance,
+    the target is the apparent inductance there (:class:`coilplan.apparent.ApparentForm`);
+    ``inductance_H`` stays the coil's own (low-frequency) value.
     """
     if (turns is None) == (target is None):
         raise ValueError("give exactly one of turns and target")
@@ -42,9 +47,11 @@ def turns_block(form, *, turns: int | None, target: float | None, measured: Meas
     if target is None:
         check_fits(form, int(turns))
         return {"turns": int(turns)}
-    solution = solve_turns(form, target)
-    return {
+    at_frequency = frequency is not None and has_frequency_model(form)
+    solution = solve_turns(ApparentForm(form, frequency) if at_frequency else form, target)
+    result = {
         "target_H": float(target),
+        "target_is_apparent": at_frequency,
         "turns": int(solution.turns),
         "turns_exact": float(solution.turns_exact),
         "turns_below": int(solution.turns_below),
@@ -52,6 +59,17 @@ def turns_block(form, *, turns: int | None, target: float | None, measured: Meas
         "inductance_below_H": float(solution.inductance_below),
         "inductance_above_H": float(solution.inductance_above),
     }
+    if at_frequency:
+        result["target_frequency_Hz"] = float(frequency)
+        result["target_inductance_at_turns_H"] = float(solution.inductance)  # apparent, at the frequency
+    return result
+
+
+def given_capacitance(measured: Measured | None) -> float | None:
+    """The self-capacitance the user measured and gave, if any (not the form's estimate)."""
+    if measured is None or measured.conditions.self_capacitance_estimated:
+        return None
+    return measured.conditions.self_capacitance
 
 
 def check_fits(form, turns: int) -> None:

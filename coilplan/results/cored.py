@@ -6,6 +6,7 @@ import math
 
 from scipy.constants import mu_0
 
+from coilplan.apparent import frequency_fields
 from coilplan.cautions import (
     MAINS_EQUIPMENT_CLASSES,
     MAINS_VOLTAGE_V,
@@ -15,6 +16,7 @@ from coilplan.cautions import (
 )
 from coilplan.forms import GappedCore, Toroid
 from coilplan.results._common import Measured, turns_block
+from coilplan.results._common import given_capacitance as _given_capacitance
 from coilplan.saturation import saturation_check
 
 __all__ = ["cored_cautions", "drive_fields", "gapped_result", "rod_result", "toroid_result"]
@@ -99,7 +101,7 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
         ``wire_length_m``, ``dc_resistance_ohm``, flux-density fields, and the
         inverse's ``turns_exact`` and neighbours.
     """
-    result = turns_block(form, turns=turns, target=target, measured=measured)
+    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=drive.get("frequency"))
     chosen = result["turns"]
     parameters = form.effective_parameters()
     implied_mu = form.al * parameters["le"] / (mu_0 * parameters["ae"])
@@ -125,6 +127,7 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
         **_winding_fields(form, chosen, temperature_C),
         **drive_fields(form, chosen, **drive),
     )
+    result.update(frequency_fields(form, chosen, drive.get("frequency"), temperature_C, _given_capacitance(measured)))
     return result
 
 
@@ -139,7 +142,7 @@ def gapped_result(form: GappedCore, *, turns: int | None = None, target: float |
         ``fringing_factor``, ``gap_m``, ``ae_m2``, ``le_m``, ``effective_mu``,
         ``turns_per_layer``, ``max_turns``, winding and flux-density fields.
     """
-    result = turns_block(form, turns=turns, target=target, measured=measured)
+    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=drive.get("frequency"))
     chosen = result["turns"]
     al = form.al_value
     factor = form.fringing_factor() if form.al is None else 1.0
@@ -158,6 +161,7 @@ def gapped_result(form: GappedCore, *, turns: int | None = None, target: float |
         **_winding_fields(form, chosen, temperature_C),
         **drive_fields(form, chosen, **drive),
     )
+    result.update(frequency_fields(form, chosen, drive.get("frequency"), temperature_C, _given_capacitance(measured)))
     return result
 
 
@@ -181,7 +185,7 @@ def rod_result(form, *, turns: int | None = None, target: float | None = None, t
         ``length_m`` (winding, end to end), ``pitch_m``, ``diameter_m`` (to wire
         centres), winding and flux-density fields, and the inverse's neighbours.
     """
-    result = turns_block(form, turns=turns, target=target, measured=measured)
+    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=drive.get("frequency"))
     chosen = result["turns"]
     factor = getattr(form, "factor", 1.0)
     result.update(
@@ -203,4 +207,5 @@ def rod_result(form, *, turns: int | None = None, target: float | None = None, t
     )
     if measured is not None:
         result["measured_residuals"] = list(measured.fit.residuals)
+    result.update(frequency_fields(form, chosen, drive.get("frequency"), temperature_C, _given_capacitance(measured)))
     return result

@@ -4,16 +4,18 @@ from __future__ import annotations
 
 import math
 
+from coilplan.apparent import frequency_fields
 from coilplan.forms import SOLENOID_METHODS, Solenoid
 from coilplan.physics.solenoid import nagaoka_coefficient
 from coilplan.results._common import Measured, turns_block
+from coilplan.results._common import given_capacitance as _given_capacitance
 
 __all__ = ["solenoid_result"]
 
 
 def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float | None = None,
                     temperature_C: float = 20.0, former_diameter: float | None = None,
-                    measured: Measured | None = None) -> dict:
+                    measured: Measured | None = None, frequency: float | None = None) -> dict:
     """Forward (``turns``) or inverse (``target``) answer for a single-layer solenoid.
 
     Parameters
@@ -31,6 +33,10 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
     measured : Measured, optional
         Readings of the coil as it is (``form`` then is the calibrated model): the answer
         is the turns to add or remove.
+    frequency : float, optional
+        Operating frequency, Hz: the target is the apparent inductance there, and the
+        result gains the self-capacitance, SRF, AC resistance and Q (see
+        :func:`coilplan.apparent.frequency_fields`).
 
     Returns
     -------
@@ -50,7 +56,7 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
     """
     if (turns is None) == (target is None):
         raise ValueError("give exactly one of turns and target")
-    result = turns_block(form, turns=turns, target=target, measured=measured)
+    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=frequency)
     chosen = result["turns"]
     form.validity_warnings(chosen)
     sheet = float(form.sheet_length(chosen))
@@ -80,6 +86,9 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
             "grade": form.wire.grade,
         },
     )
+    result.update(frequency_fields(form, chosen, frequency, temperature_C, _given_capacitance(measured)))
+    result["medhurst_self_capacitance_F"] = float(form.medhurst_self_capacitance(chosen))
+    result["former_permittivity"] = form.former_permittivity
     if former_diameter is not None:
         result["former_diameter_m"] = former_diameter
     if form.max_length is not None:

@@ -1,0 +1,137 @@
+r"""A coil as it looks at its operating frequency: apparent inductance, resistance, Q, self-resonance.
+
+Every form that can estimate its self-capacitance C(N) looks, at frequency f, like
+
+.. math::
+
+    L_{app} = \frac{L}{1 - \omega^2 L C},\qquad f_{SRF} = \frac{1}{2\pi\sqrt{L C}}
+
+(the small-R limit of the parallel-C model, references.md §10). :class:`ApparentForm`
+wraps a form so that the one solver finds the turns whose *apparent* inductance at f is
+the target; :func:`frequency_fields` gives the figures a report needs at f.
+"""
+
+from __future__ import annotations
+
+import math
+import warnings
+from dataclasses import dataclass
+
+import numpy as np
+
+from coilplan.errors import MeasurementWarning
+from coilplan.physics.frequency import apparent_inductance_and_resistance, q_factor, self_resonant_frequency
+from coilplan.quantities import format_quantity
+from coilplan.rewind import SRF_FRACTION
+
+__all__ = ["ApparentForm", "frequency_fields", "has_frequency_model"]
+
+
+def has_frequency_model(form) -> bool:
+    """True when the form estimates its self-capacitance (and so its self-resonance)."""
+    return hasattr(form, "self_capacitance")
+
+
+@dataclass(frozen=True)
+class ApparentForm:
+    """``form`` seen at ``frequency``: inductance(N) is the apparent L/(1 − ω²·L·C(N)).
+
+    The turns stop short of self-resonance at ``frequency``: above it the coil is a
+    capacitor there, and no number of turns gives an inductance.
+    """
+
+    form: object
+    frequency: float
+
+    def inductance(self, turns):
+        turns = np.asarray(turns, dtype=float)
+        low = np.asarray(self.form.inductance(turns), dtype=float)
+        omega2 = (2.0 * math.pi * self.frequency) ** 2
+        denominator = 1.0 - omega2 * low * np.asarray(self.form.self_capacitance(turns), dtype=float)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return np.where(denominator > 0, low / denominator, np.nan)
+
+    def _resonant_turns(self) -> float:
+        """Turns at which the coil self-resonates at ``frequency`` (inf if it never does in range)."""
+        omega2 = (2.0 * math.pi * self.frequency) ** 2
+
+        def product(turns):
+            return omega2 * float(self.form.inductance(turns)) * float(self.form.self_capacitance(turns))
+
+        low, high = 1.0, float(self.form.max_turns())
+        if not math.isfinite(high):
+            high = 2.0
+            while product(high) < 1.0 and high < 1e7:
+                high *= 2.0
+        if product(high) < 1.0:
+            return math.inf
+        if product(low) >= 1.0:
+            return low
+        for _ in range(100):
+            middle = 0.5 * (low + high)
+            low, high = (middle, high) if product(middle) < 1.0 else (low, middle)
+            if high - low < 1e-9 * high:
+                break
+        return low
+
+    def max_turns(self) -> float:
+        return min(float(self.form.max_turns()), self._resonant_turns() * (1.0 - 1e-9))
+
+    def limit_reason(self, turns: float, lowest: bool = False) -> str:
+        if lowest or self._resonant_turns() > float(self.form.max_turns()):
+            return self.form.limit_reason(turns, lowest)
+        return (f"{math.floor(turns)} turns; with more, this coil resonates by itself below "
+                f"{format_quantity(self.frequency, 'Hz')}")
+
+    def __getattr__(self, name):
+        return getattr(self.form, name)
+
+
+def frequency_fields(form, turns: int, frequency: float | None, temperature_C: float = 20.0,
+                     capacitance: float | None = None) -> dict:
+    """Self-capacitance and self-resonance, and at ``frequency``: apparent L and R, AC resistance, Q.
+
+    Returns
+    -------
+    dict
+        ``self_capacitance_F``, ``srf_Hz``; with a frequency also ``frequency_Hz``,
+        ``ac_resistance_ohm`` (copper, at f), ``apparent_inductance_H``,
+        ``apparent_resistance_ohm``, ``q`` (ωL/R_ac, copper only) and ``srf_fraction`` (f/SRF).
+        Empty when the form has no frequency model. ``capacitance`` (F), when given, is a
+        measured self-capacitance that replaces the form's estimate
+        (``self_capacitance_source`` says which was used).
+    """
+    if not has_frequency_model(form):
+        return {}
+    inductance = float(form.inductance(turns))
+    source = "estimated" if capacitance is None else "given"
+    capacitance = float(form.self_capacitance(turns)) if capacitance is None else float(capacitance)
+    fields = {"self_capacitance_F": capacitance, "self_capacitance_source": source,
+              "srf_Hz": float(self_resonant_frequency(inductance, capacitance))}
+    if frequency is None:
+        return fields
+    resistance = float(form.ac_resistance(turns, frequency, temperature_C))
+    below = frequency < fields["srf_Hz"]
+    if below:
+        apparent_l, apparent_r = apparent_inductance_and_resistance(frequency, inductance, resistance, capacitance)
+    else:
+        apparent_l = apparent_r = math.nan
+    if not below:
+        warnings.warn(f"{format_quantity(frequency, 'Hz')} is above this coil's self-resonance at "
+                      f"{format_quantity(fields['srf_Hz'], 'Hz')}: there it is a capacitor, not an inductor",
+                      MeasurementWarning, stacklevel=2)
+    elif frequency >= SRF_FRACTION * fields["srf_Hz"]:
+        warnings.warn(f"{format_quantity(frequency, 'Hz')} is {frequency / fields['srf_Hz']:.0%} of the "
+                      f"self-resonant frequency {format_quantity(fields['srf_Hz'], 'Hz')}: the coil's "
+                      f"inductance and loss there depend strongly on its self-capacitance and strays (rule of "
+                      f"thumb: stay below a third of the SRF; common practice, no source)",
+                      MeasurementWarning, stacklevel=2)
+    fields.update(
+        frequency_Hz=float(frequency),
+        ac_resistance_ohm=resistance,
+        apparent_inductance_H=float(apparent_l),
+        apparent_resistance_ohm=float(apparent_r),
+        q=float(q_factor(inductance, resistance, frequency)),
+        srf_fraction=float(frequency / fields["srf_Hz"]),
+    )
+    return fields
