@@ -11,10 +11,11 @@ from coilplan.apparent import has_frequency_model
 from coilplan.calibrate import ScaledForm
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import InvalidInputError
+from coilplan.physics.resonance import resonant_inductance
 from coilplan.results._common import Measured
 from coilplan.rewind import DEFAULT_TOLERANCE, Conditions, closed_core_fit, low_frequency_readings, model_fit
 
-__all__ = ["calibrate_form", "conditions_from", "measurement_options"]
+__all__ = ["calibrate_form", "conditions_from", "measurement_options", "resolve_target", "tuning_options"]
 
 
 def measurement_options(function):
@@ -67,3 +68,32 @@ def calibrate_form(build, readings, conditions: Conditions, kind: str):
         fit = model_fit(form, low)
         calibrated = ScaledForm(form, fit.value)
     return calibrated, Measured(readings, fit, conditions)
+
+
+def tuning_options(function):
+    """--target-frequency with --capacitance: wind for resonance with a given capacitor."""
+    options = [
+        click.option("--target-frequency", type=QuantityType("Hz"),
+                     help="Resonate at this frequency with --capacitance (instead of --target)."),
+        click.option("--capacitance", "tuning_capacitance", type=QuantityType("F"),
+                     help="The capacitor across the coil, with --target-frequency."),
+    ]
+    return functools.reduce(lambda wrapped, option: option(wrapped), reversed(options), function)
+
+
+def resolve_target(target, target_frequency, tuning_capacitance, at):
+    """(target inductance, operating frequency) from --target or --target-frequency with --capacitance.
+
+    To resonate with C at f the coil must show L = 1/((2πf)²·C) there: its own self-capacitance
+    is in parallel with C, and the apparent inductance L/(1 − ω²LC_self) absorbs it exactly.
+    """
+    if target_frequency is None and tuning_capacitance is None:
+        return target, at
+    if target_frequency is None or tuning_capacitance is None:
+        missing = "--capacitance" if tuning_capacitance is None else "--target-frequency"
+        raise InvalidInputError(missing, "both --target-frequency and --capacitance", None)
+    if target is not None:
+        raise InvalidInputError("--target", "either --target or --target-frequency with --capacitance", None)
+    if at is not None and abs(at / target_frequency - 1.0) > 1e-12:
+        raise InvalidInputError("--at", "the same frequency as --target-frequency, or leave it out", None)
+    return resonant_inductance(target_frequency, tuning_capacitance), target_frequency

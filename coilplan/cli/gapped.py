@@ -7,7 +7,13 @@ import click
 from coilplan.choke import design_choke
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
-from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
+from coilplan.cli._measured import (
+    calibrate_form,
+    conditions_from,
+    measurement_options,
+    resolve_target,
+    tuning_options,
+)
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import GappedCore
@@ -31,16 +37,19 @@ __all__ = ["gapped"]
               help=f"Design limit for the peak flux density; default {NEAR_SATURATION:.0%} of B_sat.")
 @core_options
 @measurement_options
+@tuning_options
 @json_option
 def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns, target, wire_text, grade,
            overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
-           lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, as_json):
+           lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance,
+           as_json):
     """Gapped core: AL = µ0·Ae/(gap + le/µr), with the fringing correction shown apart.
 
     With --gap: --turns gives L, --target gives the turns. Without --gap: --turns and
     --target give the gap; --target and --current give the turns and the gap of a choke
     that carries the current without saturating (and fits the window if given).
     """
+    target, frequency = resolve_target(target, target_frequency, tuning_capacitance, frequency)
     core = resolve_core(mu=mu, material=material, al=al, measured=measured, bsat=bsat, temperature=temperature,
                         allow_gap=True)
     wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
@@ -94,7 +103,8 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
               "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material, "al_H": al,
               "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
               "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead,
+              "frequency_Hz": frequency, "target_frequency_Hz": target_frequency,
+        "tuning_capacitance_F": tuning_capacitance, "temperature_C": temperature, "lead_m": lead,
               "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name,
                               unknown_core=core.material_name is None and bool(measured))

@@ -8,7 +8,13 @@ import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
-from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
+from coilplan.cli._measured import (
+    calibrate_form,
+    conditions_from,
+    measurement_options,
+    resolve_target,
+    tuning_options,
+)
 from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
@@ -34,16 +40,19 @@ _UNCALIBRATED = ("the rod model is uncalibrated: expect tens of percent from a r
 @click.option("--max-length", type=LENGTH, help="Usable winding length; default the rod's length.")
 @core_options
 @measurement_options
+@tuning_options
 @json_option
 def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_length, turns, target, wire_text,
         grade, overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
-        lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, as_json):
+        lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance,
+        as_json):
     """Coil on a ferrite rod: the rod's apparent permeability from a cylinder's demagnetising
     factor, and the coil's length, diameter and position on the rod.
 
     The model is rough (tens of percent) until calibrated: give --measured L@N from a test
     winding and the answer is scaled to it, keeping how L changes as the winding grows.
     """
+    target, frequency = resolve_target(target, target_frequency, tuning_capacitance, frequency)
     one_of(("--turns", turns), ("--target", target))
     if al is not None:
         raise InvalidInputError("--al", "no AL value for a rod (the winding's length matters): use --measured", None)
@@ -68,7 +77,8 @@ def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_leng
               "turns": turns, "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
               "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
               "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead,
+              "frequency_Hz": frequency, "target_frequency_Hz": target_frequency,
+        "tuning_capacitance_F": tuning_capacitance, "temperature_C": temperature, "lead_m": lead,
               "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name)
     emit(command="rod", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},

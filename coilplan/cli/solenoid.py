@@ -6,7 +6,13 @@ import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import MeasurementType
-from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
+from coilplan.cli._measured import (
+    calibrate_form,
+    conditions_from,
+    measurement_options,
+    resolve_target,
+    tuning_options,
+)
 from coilplan.cli._types import CountType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SOLENOID_METHODS, Solenoid
@@ -53,16 +59,18 @@ def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
 @click.option("--former-permittivity", type=click.FloatRange(min=1.0), default=1.0, show_default=True,
               help="Relative permittivity of the former, for the self-capacitance (solid polystyrene about 2.5).")
 @measurement_options
+@tuning_options
 @json_option
 def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, length, max_length,
              lead, temperature, method, measured, frequency, former_permittivity, meter_freq, tolerance,
-             self_capacitance, turns_uncertainty, as_json):
+             self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, as_json):
     """Single-layer air-core coil on a round former.
 
     Forward: --turns N gives the inductance. Inverse: --target gives the whole
     number of turns to wind, with the inductance of the whole numbers either side.
     The coil diameter is to the wire centres: former + overall wire diameter.
     """
+    target, frequency = resolve_target(target, target_frequency, tuning_capacitance, frequency)
     one_of(("--turns", turns), ("--target", target))
     one_of(("--former", former), ("--diameter", diameter))
     wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
@@ -84,7 +92,8 @@ def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, 
         "length_m": length, "max_length_m": max_length, "lead_m": lead,
         "temperature_C": temperature, "method": method,
         "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
-        "frequency_Hz": frequency, "meter_frequency_Hz": meter_freq, "tolerance": tolerance,
+        "frequency_Hz": frequency, "target_frequency_Hz": target_frequency,
+        "tuning_capacitance_F": tuning_capacitance, "meter_frequency_Hz": meter_freq, "tolerance": tolerance,
         "self_capacitance_F": self_capacitance,
     }
     emit(command="solenoid", as_json=as_json,

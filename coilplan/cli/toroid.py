@@ -6,7 +6,13 @@ import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
-from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options
+from coilplan.cli._measured import (
+    calibrate_form,
+    conditions_from,
+    measurement_options,
+    resolve_target,
+    tuning_options,
+)
 from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
 from coilplan.forms import Toroid
@@ -27,16 +33,18 @@ __all__ = ["toroid"]
               help="One layer on the inside circumference, or layer on layer.")
 @core_options
 @measurement_options
+@tuning_options
 @json_option
 def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grade, overall, mu, material, al, measured,
            bsat, current, ac_current, ac_voltage, frequency, temperature, lead, meter_freq, tolerance,
-           self_capacitance, turns_uncertainty, as_json):
+           self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, as_json):
     """Ring core (toroid) of rectangular section: AL by IEC 60205, turns, fit and saturation.
 
     The core is given by --mu, --material, a known --al, or readings --measured L@N on a
     test winding, which also tell which generic material classes the core may be.
     --mu 1 is an air-core toroid.
     """
+    target, frequency = resolve_target(target, target_frequency, tuning_capacitance, frequency)
     one_of(("--turns", turns), ("--target", target))
     core = resolve_core(mu=mu, material=material, al=al, measured=measured, bsat=bsat, temperature=temperature)
     wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
@@ -64,7 +72,8 @@ def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grad
               "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
               "al_H": al, "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
               "bsat_T": bsat, "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "temperature_C": temperature, "lead_m": lead,
+              "frequency_Hz": frequency, "target_frequency_Hz": target_frequency,
+        "tuning_capacitance_F": tuning_capacitance, "temperature_C": temperature, "lead_m": lead,
               "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name,
                               unknown_core=core.material_name is None and bool(measured))

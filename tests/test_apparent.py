@@ -1,0 +1,85 @@
+"""The coil at its operating frequency: the solve targets the apparent inductance, and tuning to a capacitor."""
+
+import json
+import math
+
+import pytest
+from click.testing import CliRunner
+
+from coilplan.apparent import ApparentForm, frequency_fields
+from coilplan.cli import main
+from coilplan.errors import InfeasibleError
+from coilplan.forms import Solenoid
+from coilplan.solve import solve_turns
+from coilplan.wire import parse_wire
+
+
+def coil():
+    return Solenoid(diameter=0.0255, wire=parse_wire("0.5mm"))
+
+
+def run_json(*args):
+    result = CliRunner().invoke(main, [*args, "--json"])
+    assert result.exit_code == 0, result.stdout + result.stderr
+    return json.loads(result.stdout)
+
+
+@pytest.mark.parametrize("frequency", [1e6, 7e6, 14e6])
+def test_apparent_target_round_trip(frequency):
+    """At N*, L/(1 − ω²·L·C) equals the target (references.md §10, apparent inductance), L and C the form's."""
+    form = coil()
+    solution = solve_turns(ApparentForm(form, frequency), 8e-6)
+    n = solution.turns_exact
+    inductance, capacitance = float(form.inductance(n)), float(form.self_capacitance(n))
+    omega2 = (2 * math.pi * frequency) ** 2
+    assert inductance / (1 - omega2 * inductance * capacitance) == pytest.approx(8e-6, rel=1e-9, abs=0)
+    assert inductance < 8e-6  # the self-capacitance makes the coil look larger: fewer turns are needed
+
+
+def test_tuning_to_a_capacitor_resonates_there():
+    """--target-frequency with --capacitance: the coil's L with C plus its own C resonates at f (f = 1/2π√(LC))."""
+    result = run_json("solenoid", "--diameter", "25.5mm", "--wire", "0.5mm", "--target-frequency", "7MHz",
+                      "--capacitance", "47pF")["result"]
+    form = coil()
+    n = result["turns_exact"]
+    total = 47e-12 + float(form.self_capacitance(n))
+    assert 1 / (2 * math.pi * math.sqrt(float(form.inductance(n)) * total)) == pytest.approx(7e6, rel=1e-9, abs=0)
+    assert result["target_H"] == pytest.approx(1 / ((2 * math.pi * 7e6) ** 2 * 47e-12), rel=1e-12, abs=0)
+
+
+def test_above_self_resonance_is_infeasible():
+    """A target that needs more turns than stay below self-resonance at f is refused, and says why."""
+    form = Solenoid(diameter=0.1, wire=parse_wire("1mm"))
+    with pytest.raises(InfeasibleError, match="resonates by itself"):
+        solve_turns(ApparentForm(form, 30e6), 1e-3)
+
+
+def test_frequency_fields_q_and_srf():
+    """Q = ωL/R_ac and SRF = 1/(2π√(LC)) with the form's own L, R and C (textbook definitions)."""
+    form = coil()
+    fields = frequency_fields(form, 18, 7e6)
+    inductance, capacitance = float(form.inductance(18)), float(form.self_capacitance(18))
+    assert fields["srf_Hz"] == pytest.approx(1 / (2 * math.pi * math.sqrt(inductance * capacitance)), rel=1e-12, abs=0)
+    assert fields["q"] == pytest.approx(2 * math.pi * 7e6 * inductance / fields["ac_resistance_ohm"], rel=1e-12,
+                                        abs=0)
+    assert fields["ac_resistance_ohm"] > float(form.resistance(18))  # skin and proximity only add loss
+
+
+def test_json_fields_at_frequency():
+    """--at adds the fields issue 5 names: self-capacitance, SRF, apparent L, AC resistance, Q."""
+    result = run_json("solenoid", "--former", "25mm", "--wire", "0.5mm", "--turns", "18", "--at", "7MHz")["result"]
+    for key in ("self_capacitance_F", "srf_Hz", "apparent_inductance_H", "ac_resistance_ohm", "q"):
+        assert isinstance(result[key], float) and math.isfinite(result[key]), key
+
+
+def test_near_self_resonance_warns():
+    """Above a third of the SRF the answer warns (common practice, no source)."""
+    document = run_json("solenoid", "--diameter", "100mm", "--wire", "1mm", "--turns", "60", "--at", "4MHz")
+    assert any("self-resonan" in text for text in document["warnings"])
+
+
+def test_tuning_options_need_each_other():
+    """--target-frequency without --capacitance is one line naming the missing option, exit 2."""
+    result = CliRunner().invoke(main, ["solenoid", "--former", "25mm", "--wire", "0.5mm", "--target-frequency",
+                                       "7MHz"])
+    assert result.exit_code == 2 and "--capacitance" in result.stderr and result.stderr.count("\n") == 1
