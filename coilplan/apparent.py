@@ -24,7 +24,7 @@ from coilplan.physics.frequency import apparent_inductance_and_resistance, q_fac
 from coilplan.quantities import format_quantity
 from coilplan.rewind import SRF_FRACTION
 
-__all__ = ["ApparentForm", "frequency_fields", "has_frequency_model"]
+__all__ = ["ApparentForm", "frequency_fields", "has_frequency_model", "impedance_sweep"]
 
 
 def has_frequency_model(form) -> bool:
@@ -135,3 +135,31 @@ def frequency_fields(form, turns: int, frequency: float | None, temperature_C: f
         srf_fraction=float(frequency / fields["srf_Hz"]),
     )
     return fields
+
+
+def impedance_sweep(form, turns: int, *, centre: float | None = None, temperature_C: float = 20.0,
+                    points: int = 400, capacitance: float | None = None) -> dict:
+    """|Z| and Q of the coil from well below to beyond its self-resonance, for the plot.
+
+    Z is the parallel-C model (series L and R_ac(f), the self-capacitance across; see
+    :func:`coilplan.physics.frequency.coil_impedance`); Q here is |Im Z|/Re Z, the coil as a
+    meter across its terminals sees it, which falls to zero at the SRF (and is not drawn
+    above it, where the coil is a capacitor).
+
+    Returns
+    -------
+    dict
+        ``frequency_Hz``, ``impedance_ohm`` (|Z|), ``q`` arrays, and ``srf_Hz``.
+    """
+    from coilplan.physics.frequency import coil_impedance
+
+    inductance = float(form.inductance(turns))
+    capacitance = float(form.self_capacitance(turns)) if capacitance is None else float(capacitance)
+    srf = float(self_resonant_frequency(inductance, capacitance))
+    low = min(srf / 100.0, (centre or srf) / 10.0)
+    frequencies = np.geomspace(low, 3.0 * srf, points)
+    resistance = np.array([float(form.ac_resistance(turns, f, temperature_C)) for f in frequencies])
+    impedance = coil_impedance(frequencies, inductance, resistance, capacitance)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        quality = np.where(impedance.imag > 0, impedance.imag / impedance.real, np.nan)  # inductive side only
+    return {"frequency_Hz": frequencies, "impedance_ohm": np.abs(impedance), "q": quality, "srf_Hz": srf}

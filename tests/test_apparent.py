@@ -3,6 +3,7 @@
 import json
 import math
 
+import numpy as np
 import pytest
 from click.testing import CliRunner
 
@@ -83,3 +84,24 @@ def test_tuning_options_need_each_other():
     result = CliRunner().invoke(main, ["solenoid", "--former", "25mm", "--wire", "0.5mm", "--target-frequency",
                                        "7MHz"])
     assert result.exit_code == 2 and "--capacitance" in result.stderr and result.stderr.count("\n") == 1
+
+
+def test_plot_files_are_written(tmp_path):
+    """--plot writes a PNG or SVG (by its ending) of |Z| and Q; a bad ending is one line naming --plot."""
+    for name, magic in (("coil.png", b"\x89PNG"), ("coil.svg", b"<?xml")):
+        path = tmp_path / name
+        run_json("solenoid", "--former", "25mm", "--wire", "0.5mm", "--turns", "18", "--at", "7MHz",
+                 "--plot", str(path))
+        assert path.read_bytes().startswith(magic)
+    result = CliRunner().invoke(main, ["solenoid", "--former", "25mm", "--wire", "0.5mm", "--turns", "18",
+                                       "--plot", str(tmp_path / "coil.jpg")])
+    assert result.exit_code == 2 and "--plot" in result.stderr and not (tmp_path / "coil.jpg").exists()
+
+
+def test_impedance_model_peaks_at_the_srf():
+    """The sweep's |Z| is largest at the self-resonance of L and C (parallel resonance, textbook)."""
+    from coilplan.apparent import impedance_sweep
+
+    sweep = impedance_sweep(coil(), 18, points=4001)
+    peak = sweep["frequency_Hz"][int(np.argmax(sweep["impedance_ohm"]))]
+    assert peak == pytest.approx(sweep["srf_Hz"], rel=5e-3, abs=0)

@@ -8,10 +8,10 @@ from collections.abc import Callable, Iterator
 
 import click
 
-from coilplan.errors import CoilplanWarning
+from coilplan.errors import CoilplanWarning, InvalidInputError
 from coilplan.report import bullet_lines, json_document
 
-__all__ = ["captured_warnings", "emit", "json_option"]
+__all__ = ["captured_warnings", "draw_impedance_plot", "emit", "json_option", "plot_option"]
 
 json_option = click.option("--json", "as_json", is_flag=True,
                            help="Print one JSON object (SI units, unit in the key) instead of text.")
@@ -44,3 +44,38 @@ def emit(*, command: str, as_json: bool, inputs: dict, result: dict, warnings_: 
         if block:
             lines = [*lines, "", *block]
     click.echo("\n".join(lines))
+
+
+def _plot_path(ctx, param, value):
+    """Check the --plot file's ending before any work is done."""
+    if value is None:
+        return None
+    from coilplan.report.plot import plot_format
+
+    plot_format(value)
+    return value
+
+
+plot_option = click.option("--plot", "plot_path", type=click.Path(dir_okay=False), callback=_plot_path,
+                           help="Draw |Z| and Q against frequency to this file (.png, .svg or .pdf).")
+
+
+def draw_impedance_plot(plot_path, form, result: dict, frequency, temperature_C: float, title: str) -> None:
+    """Write the |Z| and Q plot of the answer's coil (atomically) and note the file in the result."""
+    if plot_path is None:
+        return
+    from coilplan.apparent import has_frequency_model, impedance_sweep
+    from coilplan.files import FileWriteError, write_atomically
+    from coilplan.report.plot import impedance_plot, plot_format
+
+    if not has_frequency_model(form):
+        raise InvalidInputError("--plot", "a coil form with a self-capacitance model", None)
+    given = result.get("self_capacitance_F") if result.get("self_capacitance_source") == "given" else None
+    sweep = impedance_sweep(form, result["turns"], centre=frequency, temperature_C=temperature_C,
+                            capacitance=given)
+    picture = impedance_plot(sweep=sweep, operating_frequency=frequency, fmt=plot_format(plot_path), title=title)
+    try:
+        write_atomically(plot_path, picture)
+    except FileWriteError as error:
+        raise click.ClickException(f"--plot {error}") from None
+    result["plot"] = str(plot_path)

@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from coilplan.choke import design_choke
-from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
@@ -38,10 +38,12 @@ __all__ = ["gapped"]
 @core_options
 @measurement_options
 @tuning_options
+@plot_option
 @json_option
 def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns, target, wire_text, grade,
            overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
            lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance,
+           plot_path,
            as_json):
     """Gapped core: AL = µ0·Ae/(gap + le/µr), with the fringing correction shown apart.
 
@@ -98,6 +100,7 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
             raise InvalidInputError("--gap", "a gap, or --turns with --target (gives the gap), or --target with "
                                     "--current (gives turns and gap)", None)
     result["mode"] = mode
+    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"gapped core, {result['turns']} turns")
     inputs = {"ae_m2": ae, "le_m": le, "gap_m": gap, "window_width_m": window_width,
               "window_depth_m": window_depth, "fringing": not no_fringing, "max_flux_T": max_flux, "turns": turns,
               "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material, "al_H": al,

@@ -6,7 +6,7 @@ import warnings
 
 import click
 
-from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
@@ -41,10 +41,12 @@ _UNCALIBRATED = ("the rod model is uncalibrated: expect tens of percent from a r
 @core_options
 @measurement_options
 @tuning_options
+@plot_option
 @json_option
 def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_length, turns, target, wire_text,
         grade, overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
         lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance,
+        plot_path,
         as_json):
     """Coil on a ferrite rod: the rod's apparent permeability from a cylinder's demagnetising
     factor, and the coil's length, diameter and position on the rod.
@@ -72,6 +74,7 @@ def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_leng
         if readings is None:
             warnings.warn(_UNCALIBRATED, OutsideValidityWarning, stacklevel=1)
         result = rod_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings, **drive)
+    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"coil on a rod, {result['turns']} turns")
     inputs = {"rod_length_m": rod_length, "rod_diameter_m": rod_diameter, "former_diameter_m": former,
               "pitch_m": pitch, "coil_length_m": coil_length, "position_m": position, "max_length_m": max_length,
               "turns": turns, "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import MeasurementType
 from coilplan.cli._measured import (
     calibrate_form,
@@ -60,10 +60,11 @@ def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
               help="Relative permittivity of the former, for the self-capacitance (solid polystyrene about 2.5).")
 @measurement_options
 @tuning_options
+@plot_option
 @json_option
 def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, length, max_length,
              lead, temperature, method, measured, frequency, former_permittivity, meter_freq, tolerance,
-             self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, as_json):
+             self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, plot_path, as_json):
     """Single-layer air-core coil on a round former.
 
     Forward: --turns N gives the inductance. Inverse: --target gives the whole
@@ -86,6 +87,7 @@ def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, 
         form, readings = calibrate_form(build, measured, conditions, "scale")
         result = solenoid_result(form, turns=turns, target=target, temperature_C=temperature,
                                  former_diameter=former, measured=readings, frequency=frequency)
+    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"single-layer coil, {result['turns']} turns")
     inputs = {
         "turns": turns, "target_H": target, "former_diameter_m": former, "diameter_m": diameter,
         "wire": wire_text, "grade": grade, "overall_diameter_m": overall, "pitch_m": pitch,

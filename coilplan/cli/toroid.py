@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
@@ -34,10 +34,11 @@ __all__ = ["toroid"]
 @core_options
 @measurement_options
 @tuning_options
+@plot_option
 @json_option
 def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grade, overall, mu, material, al, measured,
            bsat, current, ac_current, ac_voltage, frequency, temperature, lead, meter_freq, tolerance,
-           self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, as_json):
+           self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, plot_path, as_json):
     """Ring core (toroid) of rectangular section: AL by IEC 60205, turns, fit and saturation.
 
     The core is given by --mu, --material, a known --al, or readings --measured L@N on a
@@ -68,6 +69,7 @@ def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grad
 
             matches = materials_for_permeability(result["mu_r"])
             result["matching_materials"] = [match.material.name for match in matches]
+    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"toroid, {result['turns']} turns")
     inputs = {"od_m": outer, "id_m": inner, "height_m": height, "chamfer_m": chamfer, "layers": layers, "turns": turns,
               "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
               "al_H": al, "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,

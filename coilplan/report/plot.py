@@ -17,13 +17,13 @@ import numpy as np
 from coilplan.errors import InvalidInputError
 from coilplan.report.text import turns_word
 
-__all__ = ["PLOT_FORMATS", "plot_format", "trim_plot"]
+__all__ = ["PLOT_FORMATS", "impedance_plot", "plot_format", "trim_plot"]
 
 #: File name endings the plot can be written as, and the matplotlib format for each.
 PLOT_FORMATS = {".png": "png", ".svg": "svg", ".pdf": "pdf"}
 #: Date-like metadata each format would otherwise stamp into the file.
 _NO_DATES = {"png": {"Software": None}, "svg": {"Date": None}, "pdf": {"CreationDate": None, "ModDate": None}}
-_SALT = "coilplan-trim-plot"
+_SALT = "coilplan-plot"
 
 
 def plot_format(path, option: str = "--plot") -> str:
@@ -38,6 +38,57 @@ def plot_format(path, option: str = "--plot") -> str:
     if ending not in PLOT_FORMATS:
         raise InvalidInputError(option, "a file name ending in .png, .svg or .pdf", str(path))
     return PLOT_FORMATS[ending]
+
+
+def _matplotlib():
+    try:
+        from matplotlib import rc_context
+        from matplotlib.backends.backend_agg import FigureCanvasAgg
+        from matplotlib.figure import Figure
+    except ImportError:
+        raise InvalidInputError("--plot", 'matplotlib, which is not installed: pip install "coilplan[plot]"',
+                                None) from None
+    return rc_context, FigureCanvasAgg, Figure
+
+
+def impedance_plot(*, sweep: dict, operating_frequency: float | None, fmt: str, title: str | None = None) -> bytes:
+    """Draw |Z| and Q against frequency (log axes), marking the SRF and the operating point; the file's bytes.
+
+    Parameters
+    ----------
+    sweep : dict
+        From :func:`coilplan.apparent.impedance_sweep`.
+    operating_frequency : float, optional
+        Hz; marked when given.
+    fmt : {"png", "svg", "pdf"}
+    """
+    rc_context, FigureCanvasAgg, Figure = _matplotlib()
+    if fmt not in _NO_DATES:
+        raise InvalidInputError("--plot", "a format png, svg or pdf", fmt)
+    frequency = np.asarray(sweep["frequency_Hz"]) / 1e6
+    figure = Figure(figsize=(6.4, 5.6), layout="constrained")
+    FigureCanvasAgg(figure)
+    top, bottom = figure.subplots(2, 1, sharex=True)
+    top.loglog(frequency, sweep["impedance_ohm"], color="tab:blue")
+    top.set_ylabel("|Z| (Ω)")
+    quality = np.where(np.asarray(sweep["q"]) > 0, sweep["q"], np.nan)
+    bottom.semilogx(frequency, quality, color="tab:purple")
+    bottom.set_ylabel("Q (|X|/R at the terminals)")
+    bottom.set_xlabel("frequency (MHz)")
+    for axes in (top, bottom):
+        axes.axvline(sweep["srf_Hz"] / 1e6, color="tab:red", linestyle="--", linewidth=1,
+                     label=f"self-resonance {sweep['srf_Hz'] / 1e6:.4g} MHz")
+        if operating_frequency is not None:
+            axes.axvline(operating_frequency / 1e6, color="tab:green", linewidth=1.2,
+                         label=f"operating {operating_frequency / 1e6:.4g} MHz")
+        axes.grid(True, which="both", alpha=0.3)
+    top.legend(loc="upper left", fontsize="small")
+    if title:
+        top.set_title(title)
+    buffer = io.BytesIO()
+    with rc_context({"svg.hashsalt": _SALT, "svg.fonttype": "path"}):
+        figure.savefig(buffer, format=fmt, metadata=_NO_DATES[fmt])
+    return buffer.getvalue()
 
 
 def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float, target: float, tolerance: float,
@@ -70,13 +121,7 @@ def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float
     InvalidInputError
         matplotlib is not installed (the hint names the ``plot`` extra).
     """
-    try:
-        from matplotlib import rc_context
-        from matplotlib.backends.backend_agg import FigureCanvasAgg
-        from matplotlib.figure import Figure
-    except ImportError:
-        raise InvalidInputError("--plot", 'matplotlib, which is not installed: pip install "coilplan[plot]"',
-                                None) from None
+    rc_context, FigureCanvasAgg, Figure = _matplotlib()
     if fmt not in _NO_DATES:
         raise InvalidInputError("--plot", "a format png, svg or pdf", fmt)
     counts = [count for _, count in readings] + [turns]
