@@ -15,6 +15,7 @@ __all__ = [
     "hot_winding_cautions",
     "mains_voltage_caution",
     "salvaged_mains_caution",
+    "tuned_circuit_cautions",
 ]
 
 #: Above this current density a small wound coil runs hot (common practice, no source).
@@ -70,3 +71,18 @@ def salvaged_mains_caution() -> str:
             "from circuits that may hold charged capacitors, and old capacitors may hold hazardous "
             "fluids: unplug, discharge and check with a meter before taking it apart, and follow "
             "local electrical codes")
+
+
+def tuned_circuit_cautions(tuned: bool) -> list[str]:
+    """Cautions for a coil wound to resonate with a capacitor (a tank, a loading coil).
+
+    Examples
+    --------
+    >>> len(tuned_circuit_cautions(True)), tuned_circuit_cautions(False)
+    (1, [])
+    """
+    if not tuned:
+        return []
+    return ["in a transmitter's tank or loading coil, high RF voltage appears across the tank and at the top of "
+            "the coil (V = √(P·Q·X)); anything that radiates is subject to licensing and power limits: follow "
+            "local rules and licensed practice (coilplan tank --power estimates the voltage)"]

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import click
 
+from coilplan.cautions import tuned_circuit_cautions
 from coilplan.choke import design_choke
 from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
@@ -111,5 +112,6 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
               "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name,
                               unknown_core=core.material_name is None and bool(measured))
+    cautions += tuned_circuit_cautions(target_frequency is not None)
     emit(command="gapped", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
          result=result, warnings_=warnings_, cautions=cautions, render=gapped_lines)

@@ -6,6 +6,7 @@ import warnings
 
 import click
 
+from coilplan.cautions import tuned_circuit_cautions
 from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
@@ -84,5 +85,6 @@ def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_leng
         "tuning_capacitance_F": tuning_capacitance, "temperature_C": temperature, "lead_m": lead,
               "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name)
+    cautions += tuned_circuit_cautions(target_frequency is not None)
     emit(command="rod", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
          result=result, warnings_=warnings_, cautions=cautions, render=rod_lines)

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import click
 
+from coilplan.cautions import tuned_circuit_cautions
 from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import MeasurementType
 from coilplan.cli._measured import (
@@ -100,4 +101,5 @@ def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, 
     }
     emit(command="solenoid", as_json=as_json,
          inputs={key: value for key, value in inputs.items() if value is not None},
-         result=result, warnings_=warnings_, cautions=[], render=solenoid_lines)
+         result=result, warnings_=warnings_, cautions=tuned_circuit_cautions(target_frequency is not None),
+         render=solenoid_lines)
