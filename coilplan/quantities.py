@@ -30,6 +30,7 @@ __all__ = [
     "format_quantity",
     "parse_count",
     "parse_measurement",
+    "parse_pair",
     "parse_quantity",
     "parse_relative",
     "parse_temperature",
@@ -227,6 +228,27 @@ def parse_count(text: str, option: str = "value", *, minimum: int = 1) -> int:
     return value
 
 
+def parse_pair(text: str, first, second, option: str, expected: str):
+    """Read ``A@B``: two values joined by ``@``, each read by its own parser.
+
+    ``first`` and ``second`` are callables taking (text, option); the message names the
+    whole pair as ``expected`` and the part that failed.
+
+    Examples
+    --------
+    >>> parse_pair("100pF@1.2MHz", lambda t, o: parse_quantity(t, "F", o),
+    ...            lambda t, o: parse_quantity(t, "Hz", o), "--resonance", "C@f")
+    (1e-10, 1200000.0)
+    """
+    parts = str(text).split("@")
+    if len(parts) != 2:
+        raise InvalidInputError(option, expected, text)
+    try:
+        return first(parts[0], option), second(parts[1], option)
+    except InvalidInputError as error:
+        raise InvalidInputError(option, f"{expected} ({error.expected})", text) from None
+
+
 def parse_measurement(text: str, option: str = "--measured") -> tuple[float, int]:
     """Read a measured point ``L@N``: an inductance read on the meter at a whole number of turns.
 
@@ -240,16 +262,9 @@ def parse_measurement(text: str, option: str = "--measured") -> tuple[float, int
     >>> parse_measurement("120uH@36")
     (0.00012, 36)
     """
-    expected = "a measurement inductance@turns such as 120uH@36"
-    parts = str(text).split("@")
-    if len(parts) != 2:
-        raise InvalidInputError(option, expected, text)
-    try:
-        inductance = parse_quantity(parts[0], "H", option)
-        turns = parse_count(parts[1], option)
-    except InvalidInputError as error:
-        raise InvalidInputError(option, f"{expected} ({error.expected})", text) from None
-    return inductance, turns
+    return parse_pair(text, lambda part, name: parse_quantity(part, "H", name),
+                      lambda part, name: parse_count(part, name), option,
+                      "a measurement inductance@turns such as 120uH@36")
 
 
 _NUMBER_AND_UNIT = re.compile(r"^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(%|ppm)$", re.IGNORECASE)

@@ -43,7 +43,7 @@ import numpy as np
 
 from coilplan.errors import InvalidInputError
 from coilplan.physics import resonance as rs
-from coilplan.quantities import format_quantity, parse_quantity
+from coilplan.quantities import format_quantity, parse_pair, parse_quantity
 
 __all__ = [
     "DEFAULT_FREQUENCY_TOLERANCE",
@@ -138,16 +138,9 @@ def parse_resonance(text: str, option: str = "--resonance") -> tuple[float, floa
     >>> parse_resonance("100pF@1.2MHz")
     (1e-10, 1200000.0)
     """
-    expected = "a resonance capacitance@frequency such as 100pF@1.2MHz"
-    parts = str(text).split("@")
-    if len(parts) != 2:
-        raise InvalidInputError(option, expected, text)
-    try:
-        capacitance = parse_quantity(parts[0], "F", option)
-        frequency = parse_quantity(parts[1], "Hz", option)
-    except InvalidInputError as error:
-        raise InvalidInputError(option, f"{expected} ({error.expected})", text) from None
-    return capacitance, frequency
+    return parse_pair(text, lambda part, name: parse_quantity(part, "F", name),
+                      lambda part, name: parse_quantity(part, "Hz", name), option,
+                      "a resonance capacitance@frequency such as 100pF@1.2MHz")
 
 
 def _positive(value: float, option: str, unit: str, *, allow_zero: bool = False) -> float:

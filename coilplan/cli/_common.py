@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import contextlib
+import os
 import warnings
 from collections.abc import Callable, Iterator
 
@@ -11,7 +12,7 @@ import click
 from coilplan.errors import CoilplanWarning, InvalidInputError
 from coilplan.report import bullet_lines, json_document
 
-__all__ = ["captured_warnings", "draw_impedance_plot", "emit", "json_option", "plot_option"]
+__all__ = ["captured_warnings", "context_inputs", "draw_impedance_plot", "emit", "json_option", "plot_option"]
 
 json_option = click.option("--json", "as_json", is_flag=True,
                            help="Print one JSON object (SI units, unit in the key) instead of text.")
@@ -79,3 +80,33 @@ def draw_impedance_plot(plot_path, form, result: dict, frequency, temperature_C:
     except FileWriteError as error:
         raise click.ClickException(f"--plot {error}") from None
     result["plot"] = str(plot_path)
+
+
+_UNIT_SUFFIX = {"H/t2": "_H", "m2": "_m2"}
+
+
+def context_inputs() -> dict:
+    """The options the user gave, for the JSON ``inputs``: keyed by option name with the SI unit.
+
+    ``--target 10uH`` becomes ``"target_H": 1e-05``, ``--former 25mm`` becomes ``"former_m": 0.025``,
+    a repeated ``--measured L@N`` a list of ``{"inductance_H", "turns"}``; options left unset are left out.
+    """
+    from coilplan.cli._types import QuantityType, TemperatureType
+
+    context = click.get_current_context()
+    inputs = {}
+    for param in context.command.params:
+        if not isinstance(param, click.Option) or param.name in ("as_json",):
+            continue
+        value = context.params.get(param.name)
+        if value is None or value == () or value is False:
+            continue
+        name = max(param.opts, key=len).lstrip("-").replace("-", "_")
+        if isinstance(param.type, QuantityType):
+            name += _UNIT_SUFFIX.get(param.type.unit, f"_{param.type.unit}")
+        elif isinstance(param.type, TemperatureType):
+            name += "_C"
+        if param.type.name == "L@N":  # readings: (inductance, turns) pairs
+            value = [{"inductance_H": inductance, "turns": turns} for inductance, turns in value]
+        inputs[name] = str(value) if isinstance(value, os.PathLike) else value
+    return inputs

@@ -6,7 +6,7 @@ import click
 
 from coilplan.cautions import tuned_circuit_cautions
 from coilplan.choke import design_choke
-from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
+from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
@@ -102,16 +102,8 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
                                     "--current (gives turns and gap)", None)
     result["mode"] = mode
     draw_impedance_plot(plot_path, form, result, frequency, temperature, f"gapped core, {result['turns']} turns")
-    inputs = {"ae_m2": ae, "le_m": le, "gap_m": gap, "window_width_m": window_width,
-              "window_depth_m": window_depth, "fringing": not no_fringing, "max_flux_T": max_flux, "turns": turns,
-              "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material, "al_H": al,
-              "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
-              "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "target_frequency_Hz": target_frequency,
-        "tuning_capacitance_F": tuning_capacitance, "temperature_C": temperature, "lead_m": lead,
-              "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name,
                               unknown_core=core.material_name is None and bool(measured))
     cautions += tuned_circuit_cautions(target_frequency is not None)
-    emit(command="gapped", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
+    emit(command="gapped", as_json=as_json, inputs=context_inputs(),
          result=result, warnings_=warnings_, cautions=cautions, render=gapped_lines)

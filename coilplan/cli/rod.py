@@ -7,7 +7,7 @@ import warnings
 import click
 
 from coilplan.cautions import tuned_circuit_cautions
-from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
+from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
@@ -76,15 +76,7 @@ def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_leng
             warnings.warn(_UNCALIBRATED, OutsideValidityWarning, stacklevel=1)
         result = rod_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings, **drive)
     draw_impedance_plot(plot_path, form, result, frequency, temperature, f"coil on a rod, {result['turns']} turns")
-    inputs = {"rod_length_m": rod_length, "rod_diameter_m": rod_diameter, "former_diameter_m": former,
-              "pitch_m": pitch, "coil_length_m": coil_length, "position_m": position, "max_length_m": max_length,
-              "turns": turns, "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
-              "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None, "bsat_T": bsat,
-              "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "target_frequency_Hz": target_frequency,
-        "tuning_capacitance_F": tuning_capacitance, "temperature_C": temperature, "lead_m": lead,
-              "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name)
     cautions += tuned_circuit_cautions(target_frequency is not None)
-    emit(command="rod", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
+    emit(command="rod", as_json=as_json, inputs=context_inputs(),
          result=result, warnings_=warnings_, cautions=cautions, render=rod_lines)

@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from coilplan.cautions import tuned_circuit_cautions
-from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
+from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import MeasurementType
 from coilplan.cli._measured import (
     calibrate_form,
@@ -89,17 +89,7 @@ def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, 
         result = solenoid_result(form, turns=turns, target=target, temperature_C=temperature,
                                  former_diameter=former, measured=readings, frequency=frequency)
     draw_impedance_plot(plot_path, form, result, frequency, temperature, f"single-layer coil, {result['turns']} turns")
-    inputs = {
-        "turns": turns, "target_H": target, "former_diameter_m": former, "diameter_m": diameter,
-        "wire": wire_text, "grade": grade, "overall_diameter_m": overall, "pitch_m": pitch,
-        "length_m": length, "max_length_m": max_length, "lead_m": lead,
-        "temperature_C": temperature, "method": method,
-        "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
-        "frequency_Hz": frequency, "target_frequency_Hz": target_frequency,
-        "tuning_capacitance_F": tuning_capacitance, "meter_frequency_Hz": meter_freq, "tolerance": tolerance,
-        "self_capacitance_F": self_capacitance,
-    }
     emit(command="solenoid", as_json=as_json,
-         inputs={key: value for key, value in inputs.items() if value is not None},
+         inputs=context_inputs(),
          result=result, warnings_=warnings_, cautions=tuned_circuit_cautions(target_frequency is not None),
          render=solenoid_lines)

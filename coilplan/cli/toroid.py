@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from coilplan.cautions import tuned_circuit_cautions
-from coilplan.cli._common import captured_warnings, draw_impedance_plot, emit, json_option, plot_option
+from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
 from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
@@ -71,15 +71,8 @@ def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grad
             matches = materials_for_permeability(result["mu_r"])
             result["matching_materials"] = [match.material.name for match in matches]
     draw_impedance_plot(plot_path, form, result, frequency, temperature, f"toroid, {result['turns']} turns")
-    inputs = {"od_m": outer, "id_m": inner, "height_m": height, "chamfer_m": chamfer, "layers": layers, "turns": turns,
-              "target_H": target, "wire": wire_text, "grade": grade, "mu_r": mu, "material": material,
-              "al_H": al, "measured": [{"inductance_H": v, "turns": n} for v, n in measured] or None,
-              "bsat_T": bsat, "current_A": current, "ac_current_A": ac_current, "ac_voltage_V": ac_voltage,
-              "frequency_Hz": frequency, "target_frequency_Hz": target_frequency,
-        "tuning_capacitance_F": tuning_capacitance, "temperature_C": temperature, "lead_m": lead,
-              "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance}
     cautions = cored_cautions(result, temperature, material_name=core.material_name,
                               unknown_core=core.material_name is None and bool(measured))
     cautions += tuned_circuit_cautions(target_frequency is not None)
-    emit(command="toroid", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
+    emit(command="toroid", as_json=as_json, inputs=context_inputs(),
          result=result, warnings_=warnings_, cautions=cautions, render=toroid_lines)
