@@ -20,10 +20,13 @@ symbol                 attribute                         meaning
 Look a class up with :func:`material`, search with :func:`find_materials`, list
 them with :func:`all_materials`, and ask which classes a measured permeability
 fits with :func:`materials_for_permeability` (sorting a bin of unmarked cores).
+A class's frequency dispersion (``core_data/dispersion.csv``: relaxation
+frequency and relative loss factor) comes from :func:`material_dispersion`.
 """
 
 from __future__ import annotations
 
+import dataclasses
 import difflib
 import functools
 import math
@@ -33,19 +36,22 @@ from typing import Literal, NamedTuple
 import numpy as np
 from pydantic import BaseModel, ConfigDict, Field, ValidationInfo, field_validator
 
-from coilplan._data import load_table
+from coilplan._data import load_table, rule
 from coilplan.errors import DataFileError, InvalidInputError, OutsideValidityWarning
 
 __all__ = [
+    "Dispersion",
     "Material",
     "PermeabilityMatch",
     "all_materials",
     "find_materials",
     "material",
+    "material_dispersion",
     "materials_for_permeability",
 ]
 
 _FILE = "materials.csv"
+_DISPERSION_FILE = "dispersion.csv"
 # The temperatures between which the two tabulated saturation values are trusted, with a
 # margin: coilplan's own choice (no source), as the table gives values at 25 °C and 100 °C only.
 _VALID_TEMPERATURE_C = (0.0, 120.0)
@@ -429,3 +435,116 @@ def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
                                          abs(math.log(ratio))))
     matches.sort(key=lambda match: (not match.inside, match.log_distance))
     return matches
+
+
+# --------------------------------------------------------------------------- dispersion
+
+
+@dataclasses.dataclass(frozen=True)
+class _DispersionRow:
+    """One row of core_data/dispersion.csv, in the file's units (Hz).
+
+    A frozen dataclass row (coilplan._data.rule metadata), so that reading this table needs
+    no pydantic validation.
+    """
+
+    name: str = rule(pattern=r"^[a-z][a-z0-9]*(?:-[a-z0-9]+)*$")
+    relaxation_frequency_Hz: float = rule(gt=0)  # noqa: N815 (unit symbol keeps its case)
+    basis: str = rule(choices=("snoek", "typical"))
+    loss_factor: float = rule(ge=0, lt=1)
+    loss_factor_frequency_Hz: float = rule(ge=0)  # noqa: N815
+    source: str = rule(min_length=1)
+
+
+@dataclasses.dataclass(frozen=True)
+class Dispersion:
+    """The frequency dispersion of one material class, in SI units (Hz).
+
+    Get one with :func:`material_dispersion`.
+
+    Attributes
+    ----------
+    name : str
+        The material class, as in :func:`material`.
+    mu_initial : float
+        The class's typical initial permeability (from ``materials.csv``).
+    relaxation_frequency : float
+        f_r, Hz: where the relaxation's µ'' peaks.
+    basis : str
+        ``"snoek"`` (f_r from Snoek's law and the class's µi and saturation) or
+        ``"typical"`` (a typical value of the class).
+    loss_factor : float
+        Relative loss factor tanδ/µi (small-signal) at ``loss_factor_frequency``.
+    loss_factor_frequency : float
+        Hz.
+    source : str
+        Where the row's values come from.
+    """
+
+    name: str
+    mu_initial: float
+    relaxation_frequency: float
+    basis: str
+    loss_factor: float
+    loss_factor_frequency: float
+    source: str
+
+    def permeability(self, frequency):
+        """Complex relative permeability µ' − jµ'' of the class at ``frequency`` (Hz).
+
+        See :func:`coilplan.physics.dispersion.complex_permeability`.
+
+        Examples
+        --------
+        >>> mu = material_dispersion("nizn-125").permeability(1e5)
+        >>> print(f"{mu.real:.2f}, tanδ/µi = {-mu.imag / mu.real / 125:.1e}")
+        125.00, tanδ/µi = 3.0e-05
+        """
+        from coilplan.physics.dispersion import complex_permeability
+
+        return complex_permeability(frequency, self.mu_initial, self.relaxation_frequency,
+                                    self.loss_factor, self.loss_factor_frequency)
+
+
+@functools.cache
+def _dispersions() -> dict[str, Dispersion]:
+    classes = _materials()
+    table: dict[str, Dispersion] = {}
+    for row in load_table(_DISPERSION_FILE, _DispersionRow):
+        if row.name not in classes:
+            raise DataFileError(_DISPERSION_FILE, 0, "name",
+                                f"{row.name!r} is not a class of {_FILE}")
+        if classes[row.name].family == "air":
+            raise DataFileError(_DISPERSION_FILE, 0, "name", f"{row.name!r} is not magnetic: no dispersion row")
+        if row.name in table:
+            raise DataFileError(_DISPERSION_FILE, 0, "name", f"the name {row.name!r} appears twice")
+        table[row.name] = Dispersion(row.name, classes[row.name].mu_initial, row.relaxation_frequency_Hz,
+                                     row.basis, row.loss_factor, row.loss_factor_frequency_Hz, row.source)
+    return table
+
+
+def material_dispersion(name: str, option: str = "--material") -> Dispersion | None:
+    """The frequency dispersion of the material class ``name``; None for air (no core, no core loss).
+
+    Raises
+    ------
+    InvalidInputError
+        No such class (as :func:`material`).
+    DataFileError
+        A magnetic class has no row in ``core_data/dispersion.csv``.
+
+    Examples
+    --------
+    >>> d = material_dispersion("NiZn-125")
+    >>> d.relaxation_frequency, d.basis, d.loss_factor
+    (54000000.0, 'snoek', 3e-05)
+    >>> material_dispersion("air") is None
+    True
+    """
+    core = material(name, option)
+    if core.family == "air":
+        return None
+    table = _dispersions()
+    if core.name not in table:
+        raise DataFileError(_DISPERSION_FILE, 0, "name", f"no row for the class {core.name!r}")
+    return table[core.name]

@@ -517,6 +517,8 @@ class Wire:
     grade: Literal["1", "2", "3", "bare", "measured"]
     max_overall_diameter: float | None = None
     enamel_extrapolated: bool = False
+    strands: int = 1
+    strand_diameter: float | None = None
 
     def __post_init__(self):
         """Refuse a record that cannot be (a frozen record with its rules, checked once)."""
@@ -537,6 +539,10 @@ class Wire:
             if not (math.isfinite(value) and value > 0):
                 raise ValueError(f"{name} must be a finite length above zero; got {value!r}")
             object.__setattr__(self, name, value)
+        if not (isinstance(self.strands, int) and self.strands >= 1):
+            raise ValueError(f"strands must be a whole number of at least 1; got {self.strands!r}")
+        if (self.strands > 1) != (self.strand_diameter is not None):
+            raise ValueError("a stranded (litz) wire needs its strand_diameter, and only it")
         if self.overall_diameter < self.diameter:
             raise ValueError("overall_diameter must be at least the bare diameter")
         largest = self.max_overall_diameter
@@ -545,7 +551,9 @@ class Wire:
 
     @property
     def area(self) -> float:
-        """Copper cross-section π d²/4, m²."""
+        """Copper cross-section, m²: π d²/4, or n·π d_s²/4 for n strands of litz."""
+        if self.strands > 1:
+            return self.strands * math.pi * self.strand_diameter**2 / 4.0
         return math.pi * self.diameter**2 / 4.0
 
     @property
@@ -556,8 +564,11 @@ class Wire:
     def resistance_per_metre(self, temperature_C=20.0):
         """DC resistance per metre at ``temperature_C`` (°C), Ω/m.
 
-        See :func:`copper_resistance_per_metre` (IEC 60028 copper).
+        See :func:`copper_resistance_per_metre` (IEC 60028 copper); litz: the strands in
+        parallel (the lay's few percent of extra length is not counted).
         """
+        if self.strands > 1:
+            return copper_resistance_per_metre(self.strand_diameter, temperature_C) / self.strands
         return copper_resistance_per_metre(self.diameter, temperature_C)
 
     def with_grade(self, grade) -> Wire:
@@ -601,6 +612,27 @@ def _awg_label(number: float) -> str:
 _SERIES_WORDS = ("awg", "swg")
 _WIRE_EXPECTED = "a wire such as 24awg, 26swg or a bare diameter such as 0.5mm"
 _GAUGE_BEFORE = re.compile(r"#?\s*([\d./\s]*?)\s*(awg|swg)")
+_LITZ = re.compile(r"(\d+)\s*[x\u00d7]\s*(.+?)(?:\s*litz)?")
+#: Fill of a bundle of round strands in its circle (hexagonal packing, π/(2√3)); a real
+#: bundle is looser, so the overall diameter here is the smallest (common practice, no source).
+_BUNDLE_FILL = math.pi / (2.0 * math.sqrt(3.0))
+
+
+def _litz(match, *, raw_text: str, grade: str, overall: float | None, option: str) -> Wire:
+    """``40x0.1mm`` or ``40x38awg``: n enamelled strands, each read as a wire of its own."""
+    strands = int(match.group(1))
+    if strands < 2:
+        raise InvalidInputError(option, "litz as strands×strand, such as 40x0.1mm, with 2 strands or more", raw_text)
+    strand = parse_wire(match.group(2), grade=grade, option=option)
+    factor = math.sqrt(strands / _BUNDLE_FILL)
+    bundle = strand.diameter * factor
+    bundle_overall = strand.overall_diameter * factor if overall is None else overall
+    if bundle_overall < bundle:
+        raise InvalidInputError("--overall", f"an overall diameter of at least the bundle's "
+                                f"{bundle * 1e3:.3f} mm", f"{bundle_overall * 1e3:.3f} mm")
+    return Wire(label=f"{strands}×{strand.label} litz", series=strand.series, diameter=bundle,
+                overall_diameter=bundle_overall, grade="measured" if overall is not None else strand.grade,
+                strands=strands, strand_diameter=strand.diameter)
 _GAUGE_AFTER = re.compile(r"(awg|swg)\s*#?\s*([\d./\s]*)")
 
 
@@ -641,7 +673,9 @@ def parse_wire(text: str, grade="1", overall: float | None = None, option: str =
 
     Accepted (case-blind, spaces allowed): ``"24awg"``, ``"24 AWG"``, ``"AWG24"``,
     ``"#24 awg"``, ``"0000awg"``, ``"4/0awg"``, ``"24.5awg"``; ``"26swg"``,
-    ``"SWG 26"``, ``"7/0swg"``; ``"0.5mm"``, ``"20mil"``, ``"0.02in"``.
+    ``"SWG 26"``, ``"7/0swg"``; ``"0.5mm"``, ``"20mil"``, ``"0.02in"``; litz as strands×strand,
+    ``"40x0.1mm"``, ``"40x38awg"`` (its ``diameter`` is then the bundle's, packed hexagonally,
+    and ``strands``, ``strand_diameter`` say what it is made of).
 
     Parameters
     ----------
@@ -678,6 +712,8 @@ def parse_wire(text: str, grade="1", overall: float | None = None, option: str =
     True
     """
     grade = _check_grade(grade)
+    if match := _LITZ.fullmatch(str(text).strip().lower()):
+        return _litz(match, raw_text=str(text), grade=grade, overall=overall, option=option)
     if series is not None and series not in ("awg", "swg", "metric"):
         raise InvalidInputError("--series", "one of awg, swg, metric", series)
     raw = str(text)

@@ -105,3 +105,16 @@ def test_impedance_model_peaks_at_the_srf():
     sweep = impedance_sweep(coil(), 18, points=4001)
     peak = sweep["frequency_Hz"][int(np.argmax(sweep["impedance_ohm"]))]
     assert peak == pytest.approx(sweep["srf_Hz"], rel=5e-3, abs=0)
+
+
+def test_litz_beats_solid_wire_of_the_same_copper_at_hf():
+    """At 500 kHz, litz of fine strands loses less than one solid wire of the same copper area
+    (the reason litz exists: strands far below the skin depth; Sullivan 1999)."""
+    litz = parse_wire("40x0.1mm")
+    solid = parse_wire(f"{math.sqrt(40) * 0.1:.4f}mm")
+    results = []
+    for wire in (litz, solid):
+        form = Solenoid(diameter=0.0255, wire=wire)
+        ratio = float(form.ac_resistance(60, 5e5)) / float(form.resistance(60))
+        results.append(ratio)
+    assert results[0] < results[1]

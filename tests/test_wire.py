@@ -616,3 +616,17 @@ def test_json_safe_wire_values():
     """A Wire's fields dump to plain JSON (no numpy scalars leak out)."""
     dumped = json.dumps(dataclasses.asdict(parse_wire("4/0awg")))
     assert '"enamel_extrapolated": true' in dumped
+
+
+def test_litz_strands_in_parallel():
+    """40×0.1 mm litz: copper area 40·π·d²/4 and R' = ρ/area (IEC 60028 copper, strands in parallel)."""
+    wire = parse_wire("40x0.1mm")
+    assert wire.strands == 40 and wire.strand_diameter == pytest.approx(1e-4, rel=1e-15, abs=0)
+    area = 40 * math.pi * (1e-4) ** 2 / 4
+    assert wire.area == pytest.approx(area, rel=1e-12, abs=0)
+    assert wire.resistance_per_metre() == pytest.approx(1 / 58e6 / area, rel=1e-12, abs=0)
+    # the bundle is at least as wide as the strands' copper packed hexagonally (geometry)
+    assert wire.diameter >= math.sqrt(4 * area / math.pi)
+    assert parse_wire("40x38awg").label == "40×38 AWG litz"
+    with pytest.raises(InvalidInputError):
+        parse_wire("1x0.1mm")

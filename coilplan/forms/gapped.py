@@ -9,16 +9,11 @@ import numpy as np
 
 from coilplan.errors import InfeasibleError, InvalidInputError
 from coilplan.forms._checks import positive
-from coilplan.physics.frequency import (
-    dowell_delta,
-    dowell_factor,
-    multilayer_self_capacitance,
-    round_wire_resistance_ratio,
-    skin_depth,
-)
+from coilplan.forms._losses import winding_resistance_factor
+from coilplan.physics.frequency import multilayer_self_capacitance
 from coilplan.physics.magnetic import fringing_factor, gapped_al, peak_flux_density
 from coilplan.quantities import format_length, format_quantity
-from coilplan.wire import Wire, copper_resistivity
+from coilplan.wire import Wire
 
 __all__ = ["GappedCore"]
 
@@ -203,14 +198,8 @@ class GappedCore:
 
     def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
         """Resistance at ``frequency``, ohm: Dowell's factor for the winding's layers (porosity included)."""
-        resistivity = copper_resistivity(temperature_C)
-        depth = skin_depth(frequency, resistivity)
-        per_layer = self.turns_per_layer()
-        if per_layer is None:  # no window: one layer, the isolated wire's skin effect
-            factor = round_wire_resistance_ratio(self.wire.diameter / 2.0, frequency, resistivity)
-        else:
-            delta = dowell_delta(self.wire.diameter, depth, per_layer, self.window_width)
-            factor = dowell_factor(delta, self.layers(turns))
+        factor = winding_resistance_factor(self.wire, frequency, temperature_C, layers=self.layers(turns),
+                                           turns_per_layer=self.turns_per_layer(), window_width=self.window_width)
         return self.resistance(turns, temperature_C) * factor
 
     def core_area(self) -> float:

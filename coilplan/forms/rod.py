@@ -10,11 +10,12 @@ from scipy.constants import mu_0
 
 from coilplan.errors import InvalidInputError
 from coilplan.forms._checks import positive
-from coilplan.physics.frequency import knight_self_capacitance, solenoid_proximity_factor
+from coilplan.forms._losses import winding_resistance_factor
+from coilplan.physics.frequency import knight_self_capacitance
 from coilplan.physics.rod import rod_coil_inductance, rod_permeability
 from coilplan.physics.solenoid import current_sheet_inductance
 from coilplan.quantities import format_length
-from coilplan.wire import Wire, copper_resistivity
+from coilplan.wire import Wire
 
 __all__ = ["RodCoil"]
 
@@ -173,8 +174,7 @@ class RodCoil:
     def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
         """Resistance at ``frequency``, ohm: DC × the skin and proximity factor of the single layer
         (the rod's own loss is not included)."""
-        factor = solenoid_proximity_factor(self.wire.diameter, self.pitch_at(turns), frequency,
-                                           copper_resistivity(temperature_C))
+        factor = winding_resistance_factor(self.wire, frequency, temperature_C, pitch=self.pitch_at(turns))
         return self.resistance(turns, temperature_C) * factor
 
     def core_area(self) -> float:

@@ -11,14 +11,11 @@ import numpy as np
 
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.forms._checks import positive as _positive
+from coilplan.forms._losses import winding_resistance_factor
 from coilplan.physics import loops, solenoid
-from coilplan.physics.frequency import (
-    knight_self_capacitance,
-    medhurst_self_capacitance,
-    solenoid_proximity_factor,
-)
+from coilplan.physics.frequency import knight_self_capacitance, medhurst_self_capacitance
 from coilplan.quantities import format_length
-from coilplan.wire import Wire, copper_resistivity
+from coilplan.wire import Wire
 
 __all__ = ["SOLENOID_METHODS", "Solenoid", "SolenoidMethod"]
 
@@ -219,8 +216,7 @@ class Solenoid:
 
     def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
         """Resistance at ``frequency``, ohm: DC resistance × the skin and proximity factor of the winding."""
-        factor = solenoid_proximity_factor(self.wire.diameter, self.pitch_at(turns), frequency,
-                                           copper_resistivity(temperature_C))
+        factor = winding_resistance_factor(self.wire, frequency, temperature_C, pitch=self.pitch_at(turns))
         return self.resistance(turns, temperature_C) * factor
 
     def validity_warnings(self, turns: float) -> None:

@@ -10,10 +10,11 @@ import numpy as np
 
 from coilplan.errors import InvalidInputError
 from coilplan.forms._checks import positive
-from coilplan.physics.frequency import round_wire_resistance_ratio, toroid_self_capacitance
+from coilplan.forms._losses import winding_resistance_factor
+from coilplan.physics.frequency import toroid_self_capacitance
 from coilplan.physics.magnetic import al_value, effective_parameters, peak_flux_density, ring_core_constants
 from coilplan.quantities import format_length
-from coilplan.wire import Wire, copper_resistivity
+from coilplan.wire import Wire
 
 __all__ = ["Toroid", "ToroidLayers"]
 
@@ -185,9 +186,8 @@ class Toroid:
                                        permittivity=2.0)
 
     def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
-        """Resistance at ``frequency``, ohm: DC resistance × the isolated round wire's skin-effect ratio."""
-        ratio = round_wire_resistance_ratio(self.wire.diameter / 2.0, frequency, copper_resistivity(temperature_C))
-        return self.resistance(turns, temperature_C) * ratio
+        """Resistance at ``frequency``, ohm: DC resistance × the skin-effect ratio (turns spread round the ring)."""
+        return self.resistance(turns, temperature_C) * winding_resistance_factor(self.wire, frequency, temperature_C)
 
     def core_area(self) -> float:
         """Effective cross-section Ae, m²."""

@@ -246,9 +246,9 @@ def core_loss_resistance(frequency, inductance, mu_complex, dilution=1.0):
     --------
     >>> mu = complex_permeability(1e6, 125, 54e6)
     >>> print(f"{float(core_loss_resistance(1e6, 10e-6, mu)):.3f} ohm")
-    1.150 ohm
+    1.154 ohm
     >>> print(f"{float(core_loss_resistance(1e6, 10e-6, mu, dilution=0.1)):.4f} ohm")
-    0.1150 ohm
+    0.1154 ohm
     """
     mu = np.asarray(mu_complex, dtype=complex)
     omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
