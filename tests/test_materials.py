@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import csv
 import io
+import itertools
 import math
 import re
 import warnings
@@ -405,3 +406,127 @@ def test_identification_leaves_no_gap_between_the_classes():
     for mu_r in np.geomspace(3.2, 18000, 600):
         assert materials_for_permeability(float(mu_r)), mu_r
     assert materials_for_permeability(2.0) == []  # between air and the lowest powdered iron
+
+
+# --------------------------------------------------------------------------- dispersion.csv
+
+DISPERSION_TEXT = (CORE_DATA / "dispersion.csv").read_text(encoding="utf-8")
+
+
+def dispersion_rows() -> dict[str, dict[str, str]]:
+    """The data rows of dispersion.csv, read with the csv module (not coilplan's loader)."""
+    lines = [line for line in DISPERSION_TEXT.splitlines() if line.strip() and not line.startswith("#")]
+    return {row["name"]: row for row in csv.DictReader(io.StringIO("\n".join(lines)))}
+
+
+DISPERSION_ROWS = dispersion_rows()
+
+
+def test_every_magnetic_class_has_one_dispersion_row_with_a_source():
+    """dispersion.csv has one row per class of materials.csv except air, each naming its source or 'from memory'."""
+    assert sorted(DISPERSION_ROWS) == sorted(n for n in NAMES if n != "air")
+    assert DISPERSION_TEXT.count("\nair,") == 0
+    for name, row in DISPERSION_ROWS.items():
+        assert row["source"].strip(), name
+        assert "from memory" in row["source"] or "http" in row["source"], name
+        assert row["basis"] in ("snoek", "typical")
+        loaded = materials_module.material_dispersion(name)
+        assert loaded.relaxation_frequency == float(row["relaxation_frequency_Hz"])
+        assert loaded.mu_initial == material(name).mu_initial
+
+
+def test_no_maker_grade_names_in_the_dispersion_table():
+    """The dispersion rows describe classes, not a maker's grades ("mix 2", numbered materials)."""
+    assert re.search(r"\b(?:mix|material|type|grade)\s*#?-?\d", DISPERSION_TEXT.lower()) is None
+
+
+def _two_figures(value: float) -> float:
+    return float(f"{value:.1e}")
+
+
+@pytest.mark.parametrize("name", [n for n, row in DISPERSION_ROWS.items() if row["basis"] == "snoek"])
+def test_snoek_rows_follow_from_the_class_permeability_and_saturation(name):
+    """A 'snoek' row's f_r is Snoek's law (Snoek 1948) with the class's µi and Bs(25 °C), to its 2 figures."""
+    from coilplan.physics.dispersion import snoek_relaxation_frequency
+
+    core = material(name)
+    exact = float(snoek_relaxation_frequency(core.mu_initial, core.saturation_flux_density_25C))
+    assert float(DISPERSION_ROWS[name]["relaxation_frequency_Hz"]) == _two_figures(exact)
+
+
+def test_nizn_snoek_product_is_constant_within_the_saturation_spread():
+    """Across the NiZn classes (µi − 1)·f_r varies only as Bs does, and higher µi has lower f_r (Snoek's law)."""
+    nizn = sorted(by_family("NiZn ferrite"), key=lambda core: core.mu_initial)
+    relax = [materials_module.material_dispersion(core.name).relaxation_frequency for core in nizn]
+    assert all(high < low for low, high in itertools.pairwise(relax))
+    products = [(core.mu_initial - 1) * f_r for core, f_r in zip(nizn, relax, strict=True)]
+    saturations = [core.saturation_flux_density_25C for core in nizn]
+    # the products spread no more than the saturations do, plus 5 % for the rounding to 2 figures
+    assert max(products) / min(products) <= max(saturations) / min(saturations) * 1.05
+    # and each lies within 5 % of the Snoek constant times its own saturation: 2/3 · 28.025 GHz/T
+    for product, bsat in zip(products, saturations, strict=True):
+        assert product / bsat == pytest.approx(2 / 3 * 28.0249514e9, rel=0.05)
+
+
+@pytest.mark.parametrize("name", list(DISPERSION_ROWS))
+def test_relaxation_lies_above_the_useful_range(name):
+    """An inductor material is used well below its relaxation (common practice, no source): f_r ≥ f_high for
+    the classes meant for tuned circuits, and f_r ≥ f_high/2 for broadband and power classes, which run into it."""
+    core = material(name)
+    f_r = materials_module.material_dispersion(name).relaxation_frequency
+    top = core.frequency_range[1]
+    if "tuned circuits" in core.description:
+        assert f_r >= top
+    else:
+        assert f_r >= top / 2
+
+
+@pytest.mark.parametrize("name", list(DISPERSION_ROWS))
+def test_loss_factor_is_reproduced_at_its_frequency(name):
+    """Each row's tanδ/µi exceeds the relaxation's own loss at its frequency, so the model returns it there."""
+    dispersion = materials_module.material_dispersion(name)
+    mu = dispersion.permeability(dispersion.loss_factor_frequency)
+    assert -mu.imag / mu.real / dispersion.mu_initial == pytest.approx(dispersion.loss_factor, rel=1e-9)
+    assert mu.real <= dispersion.mu_initial
+
+
+def test_air_has_no_dispersion_and_unknown_names_fail():
+    """Air gives None (no core loss); an unknown class raises InvalidInputError naming --material."""
+    assert materials_module.material_dispersion("air") is None
+    with pytest.raises(InvalidInputError) as caught:
+        materials_module.material_dispersion("nizn-152")
+    assert caught.value.option == "--material"
+
+
+@pytest.mark.parametrize(("change", "column"), [
+    (("snoek", "guess"), "basis"),
+    ((",3e-5,", ",-3e-5,"), "loss_factor"),
+    ((",5.4e7,", ",0,"), "relaxation_frequency_Hz"),
+])
+def test_malformed_dispersion_row_names_file_line_and_column(change, column):
+    """A bad cell raises DataFileError naming dispersion.csv, the line and the column."""
+    lines = DISPERSION_TEXT.splitlines()
+    index = next(i for i, text in enumerate(lines) if text.startswith("nizn-125,"))
+    lines[index] = lines[index].replace(*change, 1)
+    bad = "\n".join(lines)
+    assert bad != DISPERSION_TEXT.rstrip("\n")
+    with pytest.raises(DataFileError) as caught:
+        _data.parse_table(bad, "dispersion.csv", materials_module._DispersionRow)
+    line = next(n for n, text in enumerate(bad.splitlines(), start=1) if text.startswith("nizn-125"))
+    assert (caught.value.file, caught.value.line, caught.value.column) == ("dispersion.csv", line, column)
+
+
+def test_dispersion_row_for_an_unknown_class_is_a_data_error(monkeypatch):
+    """A dispersion row naming a class missing from materials.csv raises DataFileError on the name column."""
+    rows = (materials_module._DispersionRow("nizn-999", 1e7, "typical", 1e-5, 1e5, "invented for the test"),)
+    real_load = materials_module.load_table
+    monkeypatch.setattr(materials_module, "load_table",
+                        lambda file, model: rows if file == "dispersion.csv" else real_load(file, model))
+    materials_module._dispersions.cache_clear()
+    try:
+        with pytest.raises(DataFileError) as caught:
+            materials_module.material_dispersion("nizn-125")
+        assert caught.value.column == "name" and "nizn-999" in str(caught.value)
+    finally:
+        monkeypatch.undo()
+        materials_module._dispersions.cache_clear()

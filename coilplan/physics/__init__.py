@@ -3,6 +3,8 @@
 Each function's docstring gives its equation and published source.
 """
 
+from coilplan.physics.dispersion import *  # noqa: F403
+from coilplan.physics.dispersion import __all__ as _dispersion_all
 from coilplan.physics.frequency import *  # noqa: F403
 from coilplan.physics.frequency import __all__ as _frequency_all
 from coilplan.physics.loops import *  # noqa: F403
@@ -16,4 +18,12 @@ from coilplan.physics.rod import __all__ as _rod_all
 from coilplan.physics.solenoid import *  # noqa: F403
 from coilplan.physics.solenoid import __all__ as _solenoid_all
 
-__all__ = sorted([*_frequency_all, *_loops_all, *_magnetic_all, *_resonance_all, *_rod_all, *_solenoid_all])
+__all__ = sorted([
+    *_dispersion_all,
+    *_frequency_all,
+    *_loops_all,
+    *_magnetic_all,
+    *_resonance_all,
+    *_rod_all,
+    *_solenoid_all,
+])

@@ -15,7 +15,7 @@ D              ``dilution``                 loss dilution: µe/µ' for a gapped 
 =============  ===========================  ==================================================
 
 The model: one Debye-type relaxation of the magnetisation (domain-wall motion
-or spin rotation, [Snoek1948]) times a small constant loss angle for the
+or spin rotation, [Snoek1948]) plus a small constant loss angle for the
 hysteresis and residual losses that IEC 60401-3 data report as the relative
 loss factor tanδ/µi. All functions are pure, broadcast over every argument and
 pass NaN through.
@@ -129,7 +129,7 @@ def _residual_loss_angle(mu_i, f_r, loss_factor, f0):
     b = a * x0
     target = loss_factor * mu_i
     with np.errstate(divide="ignore", invalid="ignore"):
-        t = (target * (1.0 + a) - b) / (a + target * b)
+        t = (target * (1.0 + a) - b) / a  # from (b + a t)/(1 + a) = target
     t = np.where(chi == 0.0, 0.0, t)  # no magnetic response: nothing to lose
     return np.where(np.isnan(t), t, np.maximum(t, 0.0))
 
@@ -139,10 +139,13 @@ def complex_permeability(frequency, mu_initial, relaxation_frequency, loss_facto
 
     .. math::
 
-        \mu(f) = \mu' - j\mu'' = 1 + \frac{\mu_i - 1}{1 + j f/f_r}\,(1 - j\,t)
+        \mu' = 1 + \frac{\mu_i - 1}{1 + (f/f_r)^2},\qquad
+        \mu'' = \frac{(\mu_i - 1)\,(f/f_r + t)}{1 + (f/f_r)^2}
 
-    t is the residual (hysteresis plus residual-loss) angle, chosen so that the
-    loss tangent at the stated frequency equals the stated relative loss factor:
+    that is, the relaxation :math:`1 + (\mu_i - 1)/(1 + j f/f_r)` plus a loss
+    :math:`t\,(\mu' - 1)` in step with the in-phase susceptibility. t is the
+    residual (hysteresis plus residual-loss) angle, chosen so that the loss
+    tangent at the stated frequency equals the stated relative loss factor:
 
     .. math::
 
@@ -172,14 +175,14 @@ def complex_permeability(frequency, mu_initial, relaxation_frequency, loss_facto
     Limits of the relaxation part ([Debye1929] form, here for magnetisation):
     µ(0) = µi; µ'' peaks at f = f_r with (µi − 1)/2, where µ' = (µi + 1)/2;
     µ' falls to 1 + (µi − 1)/5 at 2 f_r; for f ≫ f_r, µ' → 1 and µ'' → 0. The
-    relaxation alone satisfies the Kramers–Kronig relations; the constant
-    loss angle does not exactly (a frequency-independent loss is the usual
-    engineering description of hysteresis and residual loss at low level,
-    from memory). If the relaxation alone already exceeds the stated loss
+    relaxation alone satisfies the Kramers–Kronig relations. The constant
+    loss angle leaves µ' unchanged, so with it they hold only approximately
+    (a frequency-independent loss angle is the usual engineering description
+    of hysteresis and residual loss at low level, from memory). If the relaxation alone already exceeds the stated loss
     factor at f0, no residual term is added (t = 0) and the model's loss at
     f0 is above the stated one. The loss factor is a small-signal value: at
     higher flux density the hysteresis loss rises (Rayleigh region), which
-    this model leaves out. See the module Notes for the stated roughness.
+    this model leaves out. The module docstring states the model's roughness.
 
     Examples
     --------
@@ -200,8 +203,8 @@ def complex_permeability(frequency, mu_initial, relaxation_frequency, loss_facto
     t = _residual_loss_angle(mu_i, f_r, np.asarray(loss_factor, dtype=float),
                              np.asarray(loss_factor_frequency, dtype=float))
     chi = mu_i - 1.0
-    # (1 − jx)/(1 + x²) · (1 − jt) = [(1 − x t) − j (x + t)]/(1 + x²)
-    real = 1.0 + chi * (relax_real - relax_imag * t)
+    # µ' − 1 = χ/(1 + x²) and µ'' = χ (x + t)/(1 + x²): the loss angle t acts on the in-phase part
+    real = 1.0 + chi * relax_real
     imag = -chi * (relax_imag + relax_real * t)
     return _out(real + 1j * imag)
 

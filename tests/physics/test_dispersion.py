@@ -158,7 +158,7 @@ def test_core_loss_is_the_real_part_of_the_winding_impedance(f, mu_i, x, inducta
 
 @pytest.mark.parametrize("gap_ratio", [1e-3, 1e-2, 1e-1])
 def test_gap_dilutes_the_loss_by_effective_over_material_permeability(gap_ratio):
-    """A gapped core (1/µe = 1/µ + l_g/l_e, complex) loses as ωL·µ''/µ'·(µe/µ') to first order in tanδ (IEC 60205 µe)."""
+    """A gapped core (1/µe = 1/µ + l_g/l_e, complex) loses ωL·µ''/µ'·(µe/µ') to first order in tanδ (IEC 60205)."""
     f, inductance = 1e5, 1e-3
     mu = complex(disp.complex_permeability(f, 2300, 4e6, loss_factor=3e-6, loss_factor_frequency=1e4))
     mu_e = 1 / (1 / mu + gap_ratio)
