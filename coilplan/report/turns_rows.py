@@ -74,7 +74,7 @@ def rewind_rows(result: dict) -> list[tuple[str, ...]]:
         ("range", span, basis),
     ]
     if result.get("wire_change_m") is not None and result["wire_change_m"] == result["wire_change_m"]:
-        rows.append(("wire", f"{abs(result['wire_change_m']) * 1e3:.0f} mm",
+        rows.append(("wire change", f"{abs(result['wire_change_m']) * 1e3:.0f} mm",
                      "comes off" if result["wire_change_m"] < 0 else "more to wind on"))
     rows.append(("how", result["explanation"]))
     for index, step in enumerate(result["plan"], start=1):
@@ -100,7 +100,9 @@ def frequency_rows(result: dict) -> list[tuple[str, ...]]:
             rows.append((f"at {at}", henry(result["apparent_inductance_H"]), "apparent inductance"))
         rows.append(("AC resistance", format_quantity(result["ac_resistance_ohm"], "ohm", 3),
                      f"copper at {at}: skin and proximity effect"))
-        cored = "al_H" in result or "rod_permeability" in result
-        rows.append(("Q", f"{result['q']:.0f}", "ωL/R, copper loss only: the core's own loss, often the larger "
-                     "at RF, is not included" if cored else "ωL/R, copper loss only"))
+        if "al_H" in result or "rod_permeability" in result:
+            rows.append(("copper Q", f"{result['q']:.0f}", "ωL/R of the copper alone: the core's own loss, "
+                         "often the larger at RF, is not modelled yet, so the coil's Q is lower"))
+        else:
+            rows.append(("Q", f"{result['q']:.0f}", "ωL/R, copper loss only"))
     return rows
