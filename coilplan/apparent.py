@@ -96,7 +96,8 @@ def frequency_fields(form, turns: int, frequency: float | None, temperature_C: f
     dict
         ``self_capacitance_F``, ``srf_Hz``; with a frequency also ``frequency_Hz``,
         ``ac_resistance_ohm`` (copper, at f), ``apparent_inductance_H``,
-        ``apparent_resistance_ohm``, ``q`` (ωL/R_ac, copper only) and ``srf_fraction`` (f/SRF).
+        ``apparent_resistance_ohm``, ``q`` (ωL/R_ac, copper only), ``q_terminals`` (the Q a meter
+        across the terminals sees, ωL_app/R_app, lowered by the self-capacitance) and ``srf_fraction``.
         Empty when the form has no frequency model. ``capacitance`` (F), when given, is a
         measured self-capacitance that replaces the form's estimate
         (``self_capacitance_source`` says which was used).
@@ -132,6 +133,7 @@ def frequency_fields(form, turns: int, frequency: float | None, temperature_C: f
         apparent_inductance_H=float(apparent_l),
         apparent_resistance_ohm=float(apparent_r),
         q=float(q_factor(inductance, resistance, frequency)),
+        q_terminals=float(q_factor(apparent_l, apparent_r, frequency)) if below else math.nan,
         srf_fraction=float(frequency / fields["srf_Hz"]),
     )
     return fields

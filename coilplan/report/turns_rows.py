@@ -96,13 +96,19 @@ def frequency_rows(result: dict) -> list[tuple[str, ...]]:
             ("self-resonance", format_quantity(result["srf_Hz"], "Hz", 3), "with that self-capacitance alone")]
     if "frequency_Hz" in result and "q" in result:
         at = format_quantity(result["frequency_Hz"], "Hz", 4)
-        if result["apparent_inductance_H"] == result["apparent_inductance_H"]:  # not NaN: below the SRF
-            rows.append((f"at {at}", henry(result["apparent_inductance_H"]), "apparent inductance"))
+        below = result["apparent_inductance_H"] == result["apparent_inductance_H"]  # NaN above the SRF
+        if not below:
+            rows.append((f"at {at}", "above self-resonance", "the coil is a capacitor there"))
+            return rows
+        rows.append((f"at {at}", henry(result["apparent_inductance_H"]), "apparent inductance"))
         rows.append(("AC resistance", format_quantity(result["ac_resistance_ohm"], "ohm", 3),
                      f"copper at {at}: skin and proximity effect"))
-        if "al_H" in result or "rod_permeability" in result:
-            rows.append(("copper Q", f"{result['q']:.0f}", "ωL/R of the copper alone: the core's own loss, "
-                         "often the larger at RF, is not modelled yet, so the coil's Q is lower"))
-        else:
-            rows.append(("Q", f"{result['q']:.0f}", "ωL/R, copper loss only"))
+        cored = "al_H" in result or "rod_permeability" in result
+        label = "copper Q" if cored else "Q"
+        note = "ωL/R of the copper alone"
+        if cored:
+            note += ": the core's own loss, often the larger at RF, is not modelled yet, so the coil's Q is lower"
+        rows.append((label, f"{result['q']:.0f}", note))
+        if result.get("srf_fraction", 0) >= 0.1:
+            rows.append(("", f"{result['q_terminals']:.0f}", "at the terminals, lowered by the self-capacitance"))
     return rows
