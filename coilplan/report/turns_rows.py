@@ -92,6 +92,8 @@ def frequency_rows(result: dict) -> list[tuple[str, ...]]:
         permittivity = result.get("former_permittivity", 1.0)
         note = (f"Knight, former permittivity {permittivity:g}; Medhurst's table gives "
                 f"{format_quantity(result['medhurst_self_capacitance_F'], 'F', 3)} (solid polystyrene formers)")
+    if not result["self_capacitance_F"] > 0:  # one layer of a layered winding: no layer-to-layer term
+        return [("self-capacitance", "not estimated", "a single layer: the layer-to-layer estimate gives none")]
     rows = [("self-capacitance", format_quantity(result["self_capacitance_F"], "F", 3), note),
             ("self-resonance", format_quantity(result["srf_Hz"], "Hz", 3), "with that self-capacitance alone")]
     if "frequency_Hz" in result and "q" in result:
