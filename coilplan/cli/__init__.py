@@ -22,6 +22,8 @@ __all__ = ["main"]
 _COMMANDS: dict[str, tuple[str, str, str]] = {
     "materials": ("materials", "materials", "Generic core material classes; which ones a measured permeability fits."),
     "solenoid": ("solenoid", "solenoid", "Single-layer air-core coil: inductance from turns, or turns for a target."),
+    "multilayer": ("multilayer", "multilayer", "Multilayer air-core coil on a former or bobbin: exact turn-by-turn."),
+    "spiral": ("spiral", "spiral", "Flat spiral (pancake) coil: inductance from turns, or turns for a target."),
     "toroid": ("toroid", "toroid", "Ring core: AL (IEC 60205), turns, fit in the hole, saturation."),
     "rewind": ("rewind", "rewind", "Measured coil on a closed core: turns to add or remove, from readings alone."),
     "rod": ("rod", "rod", "Coil on a ferrite rod: turns or inductance, calibrated by a reading."),

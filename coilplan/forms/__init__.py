@@ -22,18 +22,26 @@ from typing import Protocol
 
 from coilplan.forms.closed import ClosedCore
 from coilplan.forms.gapped import GappedCore
+from coilplan.forms.multilayer import MULTILAYER_METHODS, MultilayerCoil, MultilayerMethod
 from coilplan.forms.rod import RodCoil
 from coilplan.forms.solenoid import SOLENOID_METHODS, Solenoid, SolenoidMethod
+from coilplan.forms.spiral import SPIRAL_METHODS, FlatSpiral, SpiralMethod
 from coilplan.forms.toroid import Toroid
 
 __all__ = [
+    "MULTILAYER_METHODS",
     "SOLENOID_METHODS",
+    "SPIRAL_METHODS",
     "ClosedCore",
     "CoilForm",
+    "FlatSpiral",
     "GappedCore",
+    "MultilayerCoil",
+    "MultilayerMethod",
     "RodCoil",
     "Solenoid",
     "SolenoidMethod",
+    "SpiralMethod",
     "Toroid",
 ]
 

@@ -11,6 +11,8 @@ from coilplan.physics.loops import *  # noqa: F403
 from coilplan.physics.loops import __all__ as _loops_all
 from coilplan.physics.magnetic import *  # noqa: F403
 from coilplan.physics.magnetic import __all__ as _magnetic_all
+from coilplan.physics.multilayer import *  # noqa: F403
+from coilplan.physics.multilayer import __all__ as _multilayer_all
 from coilplan.physics.resonance import *  # noqa: F403
 from coilplan.physics.resonance import __all__ as _resonance_all
 from coilplan.physics.rod import *  # noqa: F403
@@ -23,6 +25,7 @@ __all__ = sorted([
     *_frequency_all,
     *_loops_all,
     *_magnetic_all,
+    *_multilayer_all,
     *_resonance_all,
     *_rod_all,
     *_solenoid_all,

@@ -1,0 +1,241 @@
+"""The multilayer air-core coil form: layers of turns on a former or bobbin."""
+
+from __future__ import annotations
+
+import math
+import warnings
+from dataclasses import dataclass, field
+from typing import Literal, get_args
+
+import numpy as np
+
+from coilplan.errors import InvalidInputError, OutsideValidityWarning
+from coilplan.forms._checks import positive
+from coilplan.forms._losses import winding_resistance_factor
+from coilplan.physics import multilayer
+from coilplan.physics.frequency import knight_self_capacitance, multilayer_self_capacitance
+from coilplan.quantities import format_length
+from coilplan.wire import Wire
+
+__all__ = ["MULTILAYER_METHODS", "MultilayerCoil", "MultilayerMethod"]
+
+MultilayerMethod = Literal["filament", "wheeler-1928"]
+LayerStyle = Literal["layered", "staggered"]
+
+#: Each method: (what it computes, its accuracy and source), in words.
+MULTILAYER_METHODS: dict[str, tuple[str, str]] = {
+    "filament": ("exact turn-by-turn sum: Maxwell's mutual inductance of every pair of turns and each "
+                 "turn's round-wire self-inductance",
+                 "exact for circular turns at the wire centres; helix and crossovers neglected"),
+    "wheeler-1928": ("Wheeler 1928 multilayer formula (uniform current over the winding section)",
+                     "about 1 % when 6a, 9b and 10c are about equal (Wheeler); several percent otherwise"),
+}
+
+
+@dataclass(frozen=True)
+class MultilayerCoil:
+    """Multilayer air-core coil: layers of round wire across a fixed winding width.
+
+    Parameters
+    ----------
+    former_diameter : float
+        Outside diameter of the former or bobbin core, m (the winding starts there).
+    width : float
+        Axial winding width between the bobbin cheeks, m.
+    wire : Wire
+        The wire; its overall diameter sets the pitches.
+    style : {"layered", "staggered"}
+        Simple layered (turns above turns) or staggered/orthocyclic (every second
+        layer shifted half a pitch into the grooves).
+    packing : float
+        Packing factor >= 1 stretching both pitches for hand winding (see
+        :mod:`coilplan.physics.multilayer` for the common-practice figures).
+    max_depth : float, optional
+        Radial depth of the bobbin window, m: the build must fit it.
+    lead : float
+        Lead allowance per end, m.
+    method : {"filament", "wheeler-1928"}
+        Inductance method, see :data:`MULTILAYER_METHODS`.
+    """
+
+    former_diameter: float
+    width: float
+    wire: Wire
+    style: LayerStyle = "layered"
+    packing: float = 1.0
+    max_depth: float | None = None
+    lead: float = 0.0
+    method: MultilayerMethod = "filament"
+    _cache: dict = field(default_factory=dict, init=False, repr=False, compare=False)
+
+    def __post_init__(self) -> None:
+        positive(self.former_diameter, "--former", "a former diameter")
+        positive(self.width, "--width", "a winding width")
+        positive(self.max_depth, "--max-depth", "a winding depth")
+        if not (math.isfinite(self.packing) and 1.0 <= self.packing <= 2.0):
+            raise InvalidInputError("--packing", "a packing factor from 1 to 2", self.packing)
+        if not (math.isfinite(self.lead) and self.lead >= 0):
+            raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+        if self.style not in get_args(LayerStyle):
+            raise InvalidInputError("--style", "one of " + ", ".join(get_args(LayerStyle)), self.style)
+        if self.method not in get_args(MultilayerMethod):
+            raise InvalidInputError("--method", "one of " + ", ".join(get_args(MultilayerMethod)), self.method)
+        needed = (2.0 if self.style == "staggered" else 1.0) * self.pitch
+        if self.width < needed * (1 - 1e-9):
+            raise InvalidInputError("--width", f"a winding width of at least {format_length(needed)} "
+                                    f"({'two turns' if self.style == 'staggered' else 'one turn'} of this wire)",
+                                    format_length(self.width))
+        if self.max_depth is not None and self.max_depth < self.wire.overall_diameter * (1 - 1e-9):
+            raise InvalidInputError("--max-depth", f"a depth of at least one wire diameter "
+                                    f"({format_length(self.wire.overall_diameter)})", format_length(self.max_depth))
+
+    # geometry -----------------------------------------------------------------
+    @property
+    def pitch(self) -> float:
+        """Axial pitch, m: overall wire diameter × packing."""
+        return self.wire.overall_diameter * self.packing
+
+    @property
+    def layer_pitch(self) -> float:
+        """Radial distance between layers, m (√3/2 of the pitch when staggered)."""
+        return self.pitch * (math.sqrt(3.0) / 2.0 if self.style == "staggered" else 1.0)
+
+    def turns_per_layer(self) -> int:
+        """Turns in a full (even-numbered) layer."""
+        return math.floor(self.width / self.pitch + 1e-9)
+
+    def _shifted_layer_turns(self) -> int:
+        if self.style == "staggered":
+            return math.floor(self.width / self.pitch - 0.5 + 1e-9)
+        return self.turns_per_layer()
+
+    def _mean_layer_turns(self) -> float:
+        return 0.5 * (self.turns_per_layer() + self._shifted_layer_turns())
+
+    def layers(self, turns):
+        """Layers the winding takes (the last may be partial); vectorised."""
+        turns = np.asarray(turns, dtype=float)
+        full, shifted = self.turns_per_layer(), self._shifted_layer_turns()
+        pairs = np.floor(turns / (full + shifted) - 1e-12)
+        rest = turns - pairs * (full + shifted)
+        return (2 * pairs + np.where(rest > full + 1e-9, 2, 1)) * (turns > 0)
+
+    def depth(self, turns):
+        """Radial build, m: (layers − 1) layer pitches + one pitch."""
+        return (self.layers(turns) - 1.0) * self.layer_pitch + self.pitch
+
+    def outer_diameter(self, turns):
+        """Outside diameter over the winding, m."""
+        return self.former_diameter + 2.0 * self.depth(turns)
+
+    def _layer_radius(self, k):
+        return self.former_diameter / 2.0 + self.layer_pitch / 2.0 + k * self.layer_pitch
+
+    # protocol -----------------------------------------------------------------
+    def min_turns(self) -> float:
+        return 1.0
+
+    def max_turns(self) -> float:
+        if self.max_depth is None:
+            return math.inf
+        layers = math.floor((self.max_depth - self.pitch) / self.layer_pitch + 1e-9) + 1
+        full, shifted = self.turns_per_layer(), self._shifted_layer_turns()
+        return float((layers + 1) // 2 * full + layers // 2 * shifted)
+
+    def limit_reason(self, turns: float, lowest: bool = False) -> str:
+        if lowest:
+            return "a single turn on this former"
+        return (f"the {format_length(self.width)} × {format_length(self.max_depth)} winding window holds "
+                f"{math.floor(turns + 1e-9)} turns of this wire ({self.style})")
+
+    def inductance(self, turns):
+        """Low-frequency inductance, H, by this form's ``method``; vectorised over turns.
+
+        The exact method is evaluated at whole turns and interpolated linearly between
+        them for the root finder. Range warnings are held back here (the solver probes
+        far from the answer); :meth:`validity_warnings` gives them for the turns chosen.
+        """
+        turns = np.asarray(turns, dtype=float)
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore", OutsideValidityWarning)
+            if self.method == "wheeler-1928":
+                return self.wheeler_inductance(turns)
+            return self.exact_inductance(turns)
+
+    def wheeler_inductance(self, turns):
+        """Wheeler's 1928 value, H, on the sheet section: b = T·p, c = N·h/T (mean turns per layer)."""
+        turns = np.asarray(turns, dtype=float)
+        length = self.turns_per_layer() * self.pitch
+        depth = turns * self.layer_pitch / self._mean_layer_turns()
+        mean_radius = self.former_diameter / 2.0 + depth / 2.0
+        return multilayer.wheeler_multilayer_inductance(mean_radius, length, depth, turns)
+
+    def _whole(self, n: int) -> float:
+        if n not in self._cache:
+            self._cache[n] = float(multilayer.multilayer_filament_inductance(
+                self.former_diameter / 2.0, self.width, self.wire.diameter, n,
+                overall_diameter=self.wire.overall_diameter, style=self.style, packing=self.packing))
+        return self._cache[n]
+
+    def exact_inductance(self, turns):
+        """The filament sum, H, at whole turns; linear between whole numbers for the root finder."""
+        turns = np.asarray(turns, dtype=float)
+        flat = np.atleast_1d(turns).ravel()
+        low = np.maximum(np.floor(flat), 1.0)
+        value_low = np.array([self._whole(int(n)) for n in low])
+        value_high = np.array([self._whole(int(n) + 1) for n in low])
+        result = (value_low + (flat - low) * (value_high - value_low)).reshape(np.shape(turns))
+        return result[()] if np.ndim(turns) == 0 else result
+
+    def wire_length(self, turns):
+        """Wire to cut, m: each turn 2π × its layer's radius, plus a lead at each end."""
+        turns = np.asarray(turns, dtype=float)
+        full, shifted = self.turns_per_layer(), self._shifted_layer_turns()
+        count = int(np.max(self.layers(turns), initial=1)) + 1
+        per_layer = np.tile([full, shifted], count // 2 + 1)[:count].astype(float)
+        radii = self._layer_radius(np.arange(count))
+        done = np.concatenate([[0.0], np.cumsum(per_layer)])
+        length_done = np.concatenate([[0.0], np.cumsum(per_layer * 2 * np.pi * radii)])
+        complete = np.clip(np.searchsorted(done, turns, side="right") - 1, 0, count - 1)
+        rest = turns - done[complete]
+        return length_done[complete] + rest * 2 * np.pi * radii[complete] + 2.0 * self.lead
+
+    def resistance(self, turns, temperature_C: float = 20.0):
+        """DC resistance of the wire to cut, ohm."""
+        return self.wire_length(turns) * self.wire.resistance_per_metre(temperature_C)
+
+    def self_capacitance(self, turns):
+        """Self-capacitance, F: the layer-to-layer estimate (rough, tens of percent); Knight's for one layer."""
+        turns = np.asarray(turns, dtype=float)
+        d = self.wire.overall_diameter
+        layers = self.layers(turns)
+        mean_diameter = self.former_diameter + self.depth(turns)
+        gap = (d - self.wire.diameter) + 0.2 * d  # as coilplan.forms.gapped: enamel twice plus a fifth of a wire
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore", OutsideValidityWarning)
+            layered = multilayer_self_capacitance(mean_diameter, self.width, np.maximum(layers, 1), gap,
+                                                  permittivity=3.0)
+            single = knight_self_capacitance(self.former_diameter + d, np.maximum(turns, 1) * self.pitch,
+                                             self.pitch)
+        return np.where(layers > 1, layered, single)[()]
+
+    def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
+        """Resistance at ``frequency``, ohm: Dowell's factor for the layers (one layer: the proximity form)."""
+        factor = winding_resistance_factor(self.wire, frequency, temperature_C, pitch=self.pitch,
+                                           layers=self.layers(turns), turns_per_layer=self.turns_per_layer(),
+                                           window_width=self.width)
+        return self.resistance(turns, temperature_C) * factor
+
+    def validity_warnings(self, turns: float) -> None:
+        """Warn (OutsideValidityWarning) where the chosen method is outside its stated range."""
+        if self.method == "wheeler-1928":
+            with warnings.catch_warnings(record=True) as caught:
+                warnings.simplefilter("always")
+                self.wheeler_inductance(turns)
+            if any(issubclass(w.category, OutsideValidityWarning) for w in caught):
+                warnings.warn("Wheeler's multilayer formula is outside its stated range here (6a, 9b and 10c "
+                              "far from equal); expect several percent error; the filament method is exact",
+                              OutsideValidityWarning, stacklevel=2)
+        if self.wire.diameter > 0.2 * self.former_diameter:
+            warnings.warn("the wire is thick against the former (over a fifth of its diameter): the thin-ring "
+                          "self-inductance of each turn loses accuracy", OutsideValidityWarning, stacklevel=2)

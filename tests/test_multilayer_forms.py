@@ -1,0 +1,93 @@
+"""MultilayerCoil and FlatSpiral answer the form protocol: inverse round trip, limits, wire, warnings."""
+
+import math
+import warnings
+
+import numpy as np
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from coilplan.errors import InvalidInputError, OutsideValidityWarning
+from coilplan.forms import FlatSpiral, MultilayerCoil
+from coilplan.physics.multilayer import multilayer_filament_inductance
+from coilplan.solve import solve_turns
+from coilplan.wire import parse_wire
+
+
+def wire(text="0.3mm", grade="1"):
+    return parse_wire(text, grade=grade, overall=None, option="--wire")
+
+
+@settings(max_examples=8, deadline=None)
+@given(turns=st.integers(2, 400), style=st.sampled_from(["layered", "staggered"]),
+       packing=st.floats(1.0, 1.2), width_mm=st.floats(3.0, 20.0))
+def test_multilayer_inverse_round_trip(turns, style, packing, width_mm):
+    """Solving for the inductance of N turns returns N (style.md: the inverse round trip)."""
+    form = MultilayerCoil(former_diameter=0.01, width=width_mm / 1000, wire=wire(), style=style, packing=packing)
+    assert solve_turns(form, float(form.inductance(turns))).turns == turns
+
+
+@settings(max_examples=8, deadline=None)
+@given(turns=st.integers(2, 80), spacing_mm=st.floats(0.0, 1.0), method=st.sampled_from(["filament", "wheeler"]))
+def test_spiral_inverse_round_trip(turns, spacing_mm, method):
+    """Solving for the inductance of N spiral turns returns N."""
+    form = FlatSpiral(inner_diameter=0.02, wire=wire("0.5mm"), spacing=spacing_mm / 1000, method=method)
+    assert solve_turns(form, float(form.inductance(turns))).turns == turns
+
+
+def test_inductance_interpolates_between_whole_turns_and_rises():
+    """Non-integer N: linear between whole-turn values (as Solenoid's filament method); L rises with N."""
+    form = MultilayerCoil(former_diameter=0.008, width=0.005, wire=wire("0.2mm"))
+    values = form.inductance(np.array([30.0, 30.25, 31.0]))
+    assert values[1] == pytest.approx(values[0] + 0.25 * (values[2] - values[0]), rel=1e-14)
+    assert np.all(np.diff(form.inductance(np.arange(1.0, 120.0))) > 0)
+    exact = multilayer_filament_inductance(0.004, 0.005, 0.2e-3, 31, overall_diameter=form.wire.overall_diameter)
+    assert values[2] == pytest.approx(exact, rel=1e-14)
+
+
+def test_window_limits_the_turns():
+    """max_turns counts the full and staggered layers that the depth holds (geometry)."""
+    d = wire("0.5mm", "bare").overall_diameter  # bare: overall = 0.5 mm
+    form = MultilayerCoil(former_diameter=0.01, width=0.005, wire=wire("0.5mm", "bare"), style="staggered",
+                          max_depth=0.5e-3 + 2 * math.sqrt(3) / 2 * d + 1e-7)
+    assert form.max_turns() == 10 + 9 + 10  # three layers: 10, 9, 10
+    assert float(form.depth(29)) <= form.max_depth
+
+
+def test_wire_length_of_layers():
+    """Wire is Σ 2π r over the turns: one full layer of 10 and two turns on the next, by hand."""
+    w = wire("0.5mm", "bare")
+    form = MultilayerCoil(former_diameter=0.01, width=0.005, wire=w, lead=0.02)
+    expected = 10 * 2 * math.pi * 0.00525 + 2 * 2 * math.pi * 0.00575 + 0.04
+    assert float(form.wire_length(12)) == pytest.approx(expected)
+    spiral = FlatSpiral(inner_diameter=0.02, wire=w, spacing=0.5e-3)
+    assert float(spiral.wire_length(3)) == pytest.approx(2 * math.pi * (0.01025 + 0.01125 + 0.01225))
+
+
+def test_wheeler_method_warns_outside_its_range():
+    """A flat, deep section: validity_warnings says Wheeler is outside its range (references.md §4)."""
+    form = MultilayerCoil(former_diameter=0.01, width=0.002, wire=wire("0.2mm"), method="wheeler-1928")
+    with pytest.warns(OutsideValidityWarning, match="Wheeler"):
+        form.validity_warnings(400)
+
+
+def test_bad_input_names_the_option():
+    """Errors name the option: a width below one turn, packing below 1, touching bare spiral turns."""
+    with pytest.raises(InvalidInputError, match="--width"):
+        MultilayerCoil(former_diameter=0.01, width=0.0001, wire=wire())
+    with pytest.raises(InvalidInputError, match="--packing"):
+        MultilayerCoil(former_diameter=0.01, width=0.01, wire=wire(), packing=0.9)
+    with pytest.raises(InvalidInputError, match="--spacing"):
+        FlatSpiral(inner_diameter=0.01, wire=wire("0.5mm", "bare"))
+
+
+def test_frequency_model_is_finite():
+    """Self-capacitance and AC resistance are finite and positive; AC above DC (skin effect)."""
+    form = MultilayerCoil(former_diameter=0.01, width=0.01, wire=wire())
+    spiral = FlatSpiral(inner_diameter=0.02, wire=wire("0.5mm"), spacing=0.5e-3)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", OutsideValidityWarning)
+        for f, n in ((form, 1), (form, 300), (spiral, 20)):
+            assert float(f.self_capacitance(n)) > 0
+            assert float(f.ac_resistance(n, 2e6)) > float(f.resistance(n))
