@@ -2,9 +2,9 @@
 
 from __future__ import annotations
 
-from coilplan.quantities import format_length, format_quantity
+from coilplan.quantities import format_length
 from coilplan.report.text import aligned_rows, turns_word
-from coilplan.report.turns_rows import frequency_rows, henry, target_text, turns_rows
+from coilplan.report.turns_rows import frequency_rows, henry, target_text, turns_rows, winding_rows
 
 __all__ = ["multilayer_lines", "spiral_lines"]
 
@@ -23,19 +23,7 @@ def _fit_text(fits) -> str:
 
 def _tail_rows(result: dict) -> list[tuple[str, ...]]:
     """Wire, resistance, frequency, method and Wheeler's figure beside the method's."""
-    wire = result["wire"]
-    grade = {"bare": "bare wire", "measured": "measured overall"}.get(wire["grade"], f"grade {wire['grade']} enamel")
-    lead = result["lead_m"]
-    lead_note = (f"{turns_word(result['turns'])} + 2 × {format_length(lead)} leads" if lead > 0
-                 else f"{turns_word(result['turns'])}, no lead allowance (add --lead)")
-    rows = [
-        ("wire", wire["label"], f"{format_length(wire['overall_diameter_m'])} overall, {grade}"),
-        ("wire to cut", format_length(result["wire_length_m"]), lead_note),
-        ("DC resistance", format_quantity(result["dc_resistance_ohm"], "ohm", 3), "at 20 °C"),
-    ]
-    if result["temperature_C"] != 20.0:
-        rows.append(("", format_quantity(result["dc_resistance_at_temperature_ohm"], "ohm", 3),
-                     f"at {result['temperature_C']:g} °C"))
+    rows = winding_rows(result)
     rows += frequency_rows(result)
     rows.append(("method", result["method"], result["method_note"]))
     rows.append(("accuracy", result["method_accuracy"]))

@@ -4,31 +4,13 @@ from __future__ import annotations
 
 from coilplan.quantities import format_length, format_quantity
 from coilplan.report.text import aligned_rows, turns_word
-from coilplan.report.turns_rows import frequency_rows, henry, target_text, turns_rows
+from coilplan.report.turns_rows import frequency_rows, henry, target_text, turns_rows, winding_rows
 
 __all__ = ["gapped_lines", "rod_lines", "toroid_lines"]
 
 
 def _al(value: float) -> str:
     return f"{format_quantity(value, 'H', 4)} per turn²"
-
-
-def _winding_rows(result: dict) -> list[tuple[str, ...]]:
-    wire = result["wire"]
-    grade = {"bare": "bare wire", "measured": "measured overall"}.get(
-        wire["grade"], f"grade {wire['grade']} enamel")
-    lead = result["lead_m"]
-    lead_note = (f"{turns_word(result['turns'])} + 2 × {format_length(lead)} leads" if lead > 0
-                 else f"{turns_word(result['turns'])}, no lead allowance (add --lead)")
-    rows = [
-        ("wire", wire["label"], f"{format_length(wire['overall_diameter_m'])} overall, {grade}"),
-        ("wire to cut", format_length(result["wire_length_m"]), lead_note),
-        ("DC resistance", format_quantity(result["dc_resistance_ohm"], "ohm", 3), "at 20 °C"),
-    ]
-    if result["temperature_C"] != 20.0:
-        rows.append(("", format_quantity(result["dc_resistance_at_temperature_ohm"], "ohm", 3),
-                     f"at {result['temperature_C']:g} °C"))
-    return rows
 
 
 def _drive_rows(result: dict) -> list[tuple[str, ...]]:
@@ -79,7 +61,7 @@ def toroid_lines(result: dict) -> list[str]:
         ("window holds", f"{turns_word(result['turns_window'])}", "layer on layer to the centre (theoretical)"),
         ("wire per turn", format_length(result["wire_per_turn_m"]), "first layer"),
     ]
-    rows += _winding_rows(result) + frequency_rows(result) + _drive_rows(result)
+    rows += winding_rows(result) + frequency_rows(result) + _drive_rows(result)
     if result.get("matching_materials"):
         rows.append(("material classes", ", ".join(result["matching_materials"]),
                      "consistent with the permeability (see coilplan materials)"))
@@ -122,7 +104,7 @@ def gapped_lines(result: dict) -> list[str]:
         rows.append(("turns per layer", f"{result['turns_per_layer']}"))
     if result["max_turns"] is not None:
         rows.append(("window holds", f"{turns_word(result['max_turns'])}", "layer winding"))
-    rows += _winding_rows(result) + frequency_rows(result) + _drive_rows(result)
+    rows += winding_rows(result) + frequency_rows(result) + _drive_rows(result)
     return [title, "", *aligned_rows(rows)]
 
 
@@ -150,5 +132,5 @@ def rod_lines(result: dict) -> list[str]:
                      f"from the readings; residuals {residuals}"))
     else:
         rows.append(("model", "uncalibrated", "rough: tens of percent; add --measured L@N from a test winding"))
-    rows += _winding_rows(result) + frequency_rows(result) + _drive_rows(result)
+    rows += winding_rows(result) + frequency_rows(result) + _drive_rows(result)
     return [title, "", *aligned_rows(rows)]

@@ -2,10 +2,10 @@
 
 from __future__ import annotations
 
-from coilplan.quantities import format_quantity
+from coilplan.quantities import format_length, format_quantity
 from coilplan.report.text import turns_word
 
-__all__ = ["frequency_rows", "henry", "rewind_rows", "target_text", "turns_rows"]
+__all__ = ["frequency_rows", "henry", "rewind_rows", "target_text", "turns_rows", "winding_rows"]
 
 
 def henry(value: float) -> str:
@@ -113,4 +113,23 @@ def frequency_rows(result: dict) -> list[tuple[str, ...]]:
         rows.append((label, f"{result['q']:.0f}", note))
         if result.get("srf_fraction", 0) >= 0.1:
             rows.append(("", f"{result['q_terminals']:.0f}", "at the terminals, lowered by the self-capacitance"))
+    return rows
+
+
+def winding_rows(result: dict) -> list[tuple[str, ...]]:
+    """The wire, the wire to cut (with its leads) and the DC resistance, at 20 °C and at temperature."""
+    wire = result["wire"]
+    grade = {"bare": "bare wire", "measured": "measured overall"}.get(
+        wire["grade"], f"grade {wire['grade']} enamel")
+    lead = result["lead_m"]
+    lead_note = (f"{turns_word(result['turns'])} + 2 × {format_length(lead)} leads" if lead > 0
+                 else f"{turns_word(result['turns'])}, no lead allowance (add --lead)")
+    rows = [
+        ("wire", wire["label"], f"{format_length(wire['overall_diameter_m'])} overall, {grade}"),
+        ("wire to cut", format_length(result["wire_length_m"]), lead_note),
+        ("DC resistance", format_quantity(result["dc_resistance_ohm"], "ohm", 3), "at 20 °C"),
+    ]
+    if result["temperature_C"] != 20.0:
+        rows.append(("", format_quantity(result["dc_resistance_at_temperature_ohm"], "ohm", 3),
+                     f"at {result['temperature_C']:g} °C"))
     return rows
