@@ -32,6 +32,7 @@ _COMMANDS: dict[str, tuple[str, str, str]] = {
     "tank": ("tank", "tank", "Tuned circuits: L, C and f; band coverage; L and stray C from resonances."),
     "trim": ("trim", "trim", "The measurement log of one coil being trimmed: start, add a reading, show."),
     "count-turns": ("count_turns", "count_turns", "Unknown turn count: added turns, test winding, DC resistance."),
+    "kit": ("kit", "kit", "Many coils from the stock on hand: assignment, bill of materials, winding cards."),
 }
 
 

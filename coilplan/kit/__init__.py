@@ -1,0 +1,13 @@
+"""The kit planner: many coils at once from the formers, toroids and wire reels on the shelf.
+
+``plan`` reads and validates the plan file (pydantic), ``assign`` evaluates every coil on every
+stock item and assigns stock optimally, ``outputs`` renders the table, the JSON, the bill of
+materials and the winding cards. Import it only from the ``kit`` command (pydantic stays out of
+the other commands' start-up).
+"""
+
+from coilplan.kit.assign import Candidate, KitResult, Placement, evaluate_plan, plan_kit
+from coilplan.kit.plan import PlanFileError, load_plan, parse_plan
+
+__all__ = ["Candidate", "KitResult", "Placement", "PlanFileError", "evaluate_plan", "load_plan", "parse_plan",
+           "plan_kit"]
