@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import sys
 from pathlib import Path
 
 import click
@@ -61,7 +62,7 @@ def kit(plan_file, out, force, as_json):
     stock = len(plan.former) + len(plan.toroid)
     if len(plan.coil) * stock > PROGRESS_PAIRS and not as_json:
         with click.progressbar(length=stock, label="trying every coil on every stock item",
-                               file=click.get_text_stream("stderr")) as bar:
+                               file=sys.stderr) as bar:
             result = plan_kit(plan, progress=bar.update)
     else:
         result = plan_kit(plan)
