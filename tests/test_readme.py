@@ -3,6 +3,7 @@
 import pathlib
 import re
 import shlex
+import shutil
 
 import pytest
 from click.testing import CliRunner
@@ -52,8 +53,10 @@ def _timeless(text):
 
 
 def _tour_folder(tmp_path):
-    """One folder for the whole tour, so a later command finds the file an earlier one wrote."""
+    """One folder for the whole tour, so a later command finds the file an earlier one wrote;
+    it holds a copy of examples/, as a reader's clone does."""
     if not _FOLDER:
+        shutil.copytree(ROOT / "examples", tmp_path / "examples")
         _FOLDER.append(tmp_path)
     return _FOLDER[0]
 
