@@ -565,8 +565,9 @@ def count_from_resistance(resistance: float, wire: Wire, turn_length: float, *, 
     copper_length = net / per_metre
     turns = copper_length / turn_length
     # worst case: R read high, wire thicker (lower R'), turn shorter -- and the reverse
-    high = (resistance * (1 + t_r) - lead_resistance) * (1 + t_d) ** 2 / (per_metre * turn_length * (1 - t_l))
-    low = max(resistance * (1 - t_r) - lead_resistance, 0.0) * (1 - t_d) ** 2 / (
+    # a reading within ±t of the true resistance: the truth lies in reading/(1 ± t)
+    high = (resistance / (1 - t_r) - lead_resistance) * (1 + t_d) ** 2 / (per_metre * turn_length * (1 - t_l))
+    low = max(resistance / (1 + t_r) - lead_resistance, 0.0) * (1 - t_d) ** 2 / (
         per_metre * turn_length * (1 + t_l))
     reading = format_quantity(resistance, "ohm")
     if lead_resistance > 0:

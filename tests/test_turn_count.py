@@ -240,7 +240,8 @@ def test_resistance_interval_is_the_worst_case_and_no_wider():
     estimate = count_from_resistance(reading, wire, turn_length, lead_resistance=lead, resistance_tolerance=t_r,
                                      diameter_tolerance=t_d, length_tolerance=t_l)
     # R' ∝ 1/d², so a wire (1 ± t_d) thick has R'/(1 ± t_d)²
-    ends = [(reading * (1 + s * t_r) - lead) / (per_metre / (1 + s * t_d) ** 2 * turn_length * (1 - s * t_l))
+    # a reading within ±t_r of the true R: the truth lies in reading/(1 ∓ t_r)
+    ends = [(reading / (1 - s * t_r) - lead) / (per_metre / (1 + s * t_d) ** 2 * turn_length * (1 - s * t_l))
             for s in (-1, 1)]
     assert (estimate.turns_low, estimate.turns_high) == pytest.approx(ends, rel=1e-12, abs=0)
 

@@ -32,6 +32,12 @@ MULTILAYER_METHODS: dict[str, tuple[str, str]] = {
 }
 
 
+#: Most turns and layers the exact filament sum takes on (its work grows as layers² × turns per
+#: layer: about 2 s at the layer limit here); beyond, Wheeler's formula is offered.
+EXACT_TURNS_LIMIT = 20_000
+EXACT_LAYERS_LIMIT = 200
+
+
 @dataclass(frozen=True)
 class MultilayerCoil:
     """Multilayer air-core coil: layers of round wire across a fixed winding width.
@@ -135,16 +141,31 @@ class MultilayerCoil:
     def min_turns(self) -> float:
         return 1.0
 
-    def max_turns(self) -> float:
+    def fit_turns(self) -> float:
+        """Turns the winding window holds (``math.inf`` without a maximum depth)."""
+        return self._window_turns()
+
+    def _window_turns(self) -> float:
         if self.max_depth is None:
             return math.inf
         layers = math.floor((self.max_depth - self.pitch) / self.layer_pitch + 1e-9) + 1
         full, shifted = self.turns_per_layer(), self._shifted_layer_turns()
         return float((layers + 1) // 2 * full + layers // 2 * shifted)
 
+    def _exact_limit(self) -> float:
+        return float(min(EXACT_TURNS_LIMIT, EXACT_LAYERS_LIMIT * self._mean_layer_turns()))
+
+    def max_turns(self) -> float:
+        window = self._window_turns()
+        return window if self.method != "filament" else min(window, math.floor(self._exact_limit()))
+
     def limit_reason(self, turns: float, lowest: bool = False) -> str:
         if lowest:
             return "a single turn on this former"
+        if self.method == "filament" and self._window_turns() > self._exact_limit():
+            return (f"the turn-by-turn sum stops at {math.floor(self._exact_limit())} turns "
+                    f"({EXACT_LAYERS_LIMIT} layers at most), to answer in seconds; "
+                    f"--method wheeler-1928 goes further (about 1 %)")
         return (f"the {format_length(self.width)} × {format_length(self.max_depth)} winding window holds "
                 f"{math.floor(turns + 1e-9)} turns of this wire ({self.style})")
 

@@ -30,6 +30,10 @@ SPIRAL_METHODS: dict[str, tuple[str, str]] = {
 }
 
 
+#: Most turns the exact pair sum takes on (about 2 s here); beyond, Wheeler's formula is offered.
+EXACT_TURNS_LIMIT = 3_000
+
+
 @dataclass(frozen=True)
 class FlatSpiral:
     """Flat spiral of round wire from an inner diameter outwards.
@@ -95,15 +99,26 @@ class FlatSpiral:
     def min_turns(self) -> float:
         return 1.0
 
-    def max_turns(self) -> float:
+    def fit_turns(self) -> float:
+        """Turns the space up to the outer diameter holds (``math.inf`` without one)."""
+        return self._room_turns()
+
+    def _room_turns(self) -> float:
         if self.outer_diameter is None:
             return math.inf
         room = (self.outer_diameter - self.inner_diameter) / 2.0
         return float(math.floor((room - self.wire.overall_diameter) / self.radial_pitch + 1e-9) + 1)
 
+    def max_turns(self) -> float:
+        room = self._room_turns()
+        return room if self.method != "filament" else min(room, float(EXACT_TURNS_LIMIT))
+
     def limit_reason(self, turns: float, lowest: bool = False) -> str:
         if lowest:
             return "a single turn at this inner diameter"
+        if self.method == "filament" and self._room_turns() > EXACT_TURNS_LIMIT:
+            return (f"the turn-by-turn sum stops at {EXACT_TURNS_LIMIT} turns, to answer in seconds; "
+                    f"--method wheeler goes further (about 5 %)")
         return (f"{math.floor(turns + 1e-9)} turns at {format_length(self.radial_pitch)} radial pitch fill the "
                 f"space from {format_length(self.inner_diameter)} to {format_length(self.outer_diameter)}")
 

@@ -47,7 +47,7 @@ def _common(form, result: dict, chosen: int, temperature_C: float, frequency, me
         wire=_wire_fields(form),
     )
     result.update(frequency_fields(form, chosen, frequency, temperature_C, _given_capacitance(measured)))
-    limit = form.max_turns()
+    limit = form.fit_turns()  # what the window or outer diameter holds (not the exact method's own cap)
     if math.isfinite(limit):
         result["max_turns"] = math.floor(limit + 1e-9)
         result["max_inductance_H"] = float(form.inductance(float(result["max_turns"])))

@@ -1,0 +1,80 @@
+"""Every command under random option values: exit 0, 1 or 2, never a traceback or an internal error.
+
+Values are drawn from valid, borderline and malformed text: right and wrong units, odd prefix case,
+micro signs, commas, exponents, huge and tiny numbers, empty strings and unicode.
+"""
+
+import os
+
+from click.testing import CliRunner
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from coilplan.cli import main
+
+NUMBERS = ["0", "1", "-1", "2.5", "1e9", "1e-9", "1e400", "nan", "inf", ",5", "1,5", "", " ", "٣", "1_000"]
+UNITS = ["", "uH", "µH", "μH", "mH", "UH", "pF", "nF", "MHz", "mhz", "kHz", "Hz", "mm", "MM", "in", "mil",
+         "m", "um", "A", "mA", "V", "T", "mT", "C", "K", "%", "ppm", "awg", "swg", "ohm", "mm2", "x"]
+
+
+@st.composite
+def value(draw):
+    """A value as a hurried bench user might type it."""
+    if draw(st.booleans()):
+        return draw(st.sampled_from(NUMBERS)) + draw(st.sampled_from(UNITS))
+    return draw(st.one_of(st.text(max_size=8), st.sampled_from(["24awg", "0.5mm", "10uH@20", "100pF@1MHz",
+                                                                  "530kHz:1700kHz", "40x0.1mm", "nizn-125"])))
+
+
+COMMANDS = {
+    "solenoid": ["--former", "--diameter", "--wire", "--turns", "--target", "--pitch", "--length", "--max-length",
+                 "--lead", "--temperature", "--at", "--measured", "--tolerance", "--target-frequency",
+                 "--capacitance", "--self-capacitance", "--meter-freq", "--former-permittivity"],
+    "toroid": ["--od", "--id", "--height", "--wire", "--turns", "--target", "--mu", "--material", "--al",
+               "--measured", "--current", "--ac-current", "--ac-voltage", "--at", "--bsat", "--chamfer"],
+    "gapped": ["--ae", "--le", "--gap", "--wire", "--turns", "--target", "--mu", "--material", "--current",
+               "--window-width", "--window-depth", "--max-flux", "--measured"],
+    "rod": ["--rod-length", "--rod-diameter", "--wire", "--turns", "--target", "--mu", "--material", "--position",
+            "--coil-length", "--former", "--measured"],
+    "multilayer": ["--former", "--width", "--wire", "--turns", "--target", "--packing", "--max-depth", "--at"],
+    "spiral": ["--inner", "--wire", "--spacing", "--outer", "--turns", "--target"],
+    "rewind": ["--measured", "--target", "--at", "--self-capacitance", "--tolerance", "--turn-length"],
+    "count-turns": ["--before", "--after", "--added", "--test-winding", "--unknown", "--resistance", "--wire",
+                    "--turn-length", "--tolerance"],
+    "tank": ["--inductance", "--capacitance", "--frequency", "--band", "--capacitor", "--stray", "--resonance",
+             "--padder", "--power", "--q"],
+    "wire": ["--grade", "--temperature", "--density", "--overall", "--series"],
+    "materials": ["--mu", "--tolerance"],
+}
+
+# A valid core for each command, so that random options also reach the physics, not only the parser.
+BASES = {
+    "solenoid": ["--former", "25mm", "--wire", "0.5mm"],
+    "toroid": ["--od", "23mm", "--id", "14mm", "--height", "7mm", "--wire", "0.5mm", "--mu", "125"],
+    "gapped": ["--ae", "50mm2", "--le", "40mm", "--wire", "0.3mm", "--mu", "2000", "--gap", "0.2mm"],
+    "rod": ["--rod-length", "100mm", "--rod-diameter", "10mm", "--wire", "0.3mm", "--mu", "125"],
+    "multilayer": ["--former", "10mm", "--width", "8mm", "--wire", "0.2mm"],
+    "spiral": ["--inner", "20mm", "--wire", "0.5mm", "--spacing", "0.5mm"],
+    "rewind": ["--measured", "50uH@20"],
+    "count-turns": [],
+    "tank": [],
+    "wire": [],
+    "materials": [],
+}
+
+
+@settings(max_examples=int(os.environ.get("COILPLAN_FUZZ_EXAMPLES", "150")), deadline=None)
+@given(data=st.data())
+def test_random_options_never_crash(data):
+    """Any mix of options and values ends in exit status 0, 1 or 2 with at most one error line, no traceback."""
+    command = data.draw(st.sampled_from(sorted(COMMANDS)))
+    options = data.draw(st.lists(st.sampled_from(COMMANDS[command]), min_size=1, max_size=4, unique=True))
+    arguments = [command, *BASES[command]]
+    for option in options:
+        arguments += [option, data.draw(value())]
+    result = CliRunner().invoke(main, arguments)
+    assert result.exit_code in (0, 1, 2), (arguments, result.output)
+    assert "Traceback" not in result.output, arguments
+    assert "internal error" not in result.output, (arguments, result.output)
+    if result.exit_code:
+        assert result.stderr.count("\n") == 1, (arguments, result.stderr)
