@@ -73,18 +73,18 @@ def _log_inductance(form, turns: np.ndarray) -> np.ndarray:
 
 
 def _upper_bracket(form, log_target: np.ndarray, low: float) -> tuple[float, bool]:
-    """Largest usable turns: the form's limit, or a doubling search when it has none.
+    """The top of the bracket: doubling from a few turns until L reaches the largest target.
 
-    Returns (turns, limited_by_form).
+    It stops at the form's own limit (returning limited=True) or at the search limit, so
+    the solver never evaluates a costly model far beyond the answer.
     """
     limit = float(form.max_turns())
-    if math.isfinite(limit):
-        return float(math.floor(limit + 1e-9)), True  # a coil has whole turns
-    high = max(2.0 * low, 2.0)
+    limit = float(math.floor(limit + 1e-9)) if math.isfinite(limit) else _UNBOUNDED_TURNS  # whole turns
     needed = float(np.max(log_target))
-    while high < _UNBOUNDED_TURNS and _log_inductance(form, np.array([high]))[0] < needed:
-        high *= 2.0
-    return min(high, _UNBOUNDED_TURNS), False
+    high = min(max(2.0 * low, 2.0), limit)
+    while high < limit and _log_inductance(form, np.array([high]))[0] < needed:
+        high = min(2.0 * high, limit)
+    return high, high >= limit and math.isfinite(float(form.max_turns()))
 
 
 def _check_bracket(form, targets: np.ndarray, low: float, high: float,
