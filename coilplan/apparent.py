@@ -58,15 +58,15 @@ class ApparentForm:
         def product(turns):
             return omega2 * float(self.form.inductance(turns)) * float(self.form.self_capacitance(turns))
 
-        low, high = 1.0, float(self.form.max_turns())
-        if not math.isfinite(high):
-            high = 2.0
-            while product(high) < 1.0 and high < 1e7:
-                high *= 2.0
+        limit = float(self.form.max_turns())
+        limit = limit if math.isfinite(limit) else 1e7
+        low, high = 1.0, min(2.0, limit)
+        while product(high) < 1.0 and high < limit:  # double up to the limit: the model may be costly
+            low, high = high, min(2.0 * high, limit)
         if product(high) < 1.0:
             return math.inf
-        if product(low) >= 1.0:
-            return low
+        if product(1.0) >= 1.0:
+            return 1.0
         for _ in range(100):
             middle = 0.5 * (low + high)
             low, high = (middle, high) if product(middle) < 1.0 else (low, middle)
