@@ -88,6 +88,8 @@ def frequency_rows(result: dict) -> list[tuple[str, ...]]:
         return []
     source = "measured, as given" if result.get("self_capacitance_source") == "given" else "estimate"
     note = source
+    if source == "estimate" and "turns_one_layer" in result:  # a toroid
+        note = "rough estimate, turn to turn only, likely low: measure it (coilplan tank --resonance) if it matters"
     if "medhurst_self_capacitance_F" in result and source == "estimate":
         permittivity = result.get("former_permittivity", 1.0)
         note = (f"Knight, former permittivity {permittivity:g}; Medhurst's table gives "
