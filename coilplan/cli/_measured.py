@@ -15,7 +15,14 @@ from coilplan.physics.resonance import resonant_inductance
 from coilplan.results._common import Measured
 from coilplan.rewind import DEFAULT_TOLERANCE, Conditions, closed_core_fit, low_frequency_readings, model_fit
 
-__all__ = ["calibrate_form", "conditions_from", "measurement_options", "resolve_target", "tuning_options"]
+__all__ = [
+    "calibrate_form",
+    "coil_options",
+    "conditions_from",
+    "measurement_options",
+    "resolve_target",
+    "tuning_options",
+]
 
 
 def measurement_options(function):
@@ -97,3 +104,34 @@ def resolve_target(target, target_frequency, tuning_capacitance, at):
     if at is not None and abs(at / target_frequency - 1.0) > 1e-12:
         raise InvalidInputError("--at", "the same frequency as --target-frequency, or leave it out", None)
     return resonant_inductance(target_frequency, tuning_capacitance), target_frequency
+
+
+def _stack(options):
+    return lambda function: functools.reduce(lambda wrapped, option: option(wrapped), reversed(options), function)
+
+
+def coil_options(function):
+    """What every air-cored form command shares: turns or target, the wire, the leads and temperature,
+    readings of the coil in hand and the operating frequency."""
+    from coilplan.cli._cored import MeasurementType
+    from coilplan.cli._types import CountType, TemperatureType
+
+    length = QuantityType("m")
+    return _stack([
+        click.option("--turns", type=CountType(), help="Turns wound (forward: gives the inductance)."),
+        click.option("--target", type=QuantityType("H"),
+                     help="Inductance wanted, e.g. 10uH (inverse: gives the turns)."),
+        click.option("--wire", "wire_text", required=True,
+                     help="Bare wire diameter (0.5mm, 20mil), gauge (24awg, 26swg) or litz (40x0.1mm)."),
+        click.option("--grade", type=click.Choice(["1", "2", "3", "bare"]), default="1", show_default=True,
+                     help="Enamel grade (IEC 60317), or bare wire."),
+        click.option("--overall", type=length, help="Measured overall (insulated) wire diameter; overrides --grade."),
+        click.option("--lead", type=QuantityType("m", allow_zero=True), default="0mm", show_default=True,
+                     help="Lead allowance per end, added to the wire to cut."),
+        click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
+                     help="Winding temperature for a second DC resistance figure."),
+        click.option("--measured", "measured", type=MeasurementType(), multiple=True,
+                     help="A reading L@N on this coil, e.g. 47uH@30 (repeatable): calibrates the model."),
+        click.option("--at", "frequency", type=QuantityType("Hz"),
+                     help="Operating frequency: the target is the inductance the coil shows there; adds SRF, R, Q."),
+    ])(function)

@@ -6,9 +6,15 @@ import click
 
 from coilplan.cautions import tuned_circuit_cautions
 from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import MeasurementType
-from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options, resolve_target, tuning_options
-from coilplan.cli._types import CountType, QuantityType, TemperatureType
+from coilplan.cli._measured import (
+    calibrate_form,
+    coil_options,
+    conditions_from,
+    measurement_options,
+    resolve_target,
+    tuning_options,
+)
+from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
 from coilplan.forms import MULTILAYER_METHODS, MultilayerCoil
 from coilplan.report.coils_text import multilayer_lines
@@ -21,29 +27,16 @@ LENGTH = QuantityType("m")
 
 
 @click.command()
-@click.option("--turns", type=CountType(), help="Turns wound (forward: gives the inductance).")
-@click.option("--target", type=QuantityType("H"), help="Inductance wanted, e.g. 1mH (inverse: gives the turns).")
+@coil_options
 @click.option("--former", type=LENGTH, required=True, help="Outside diameter of the former or bobbin core, e.g. 10mm.")
 @click.option("--width", type=LENGTH, required=True, help="Axial winding width between the cheeks, e.g. 8mm.")
-@click.option("--wire", "wire_text", required=True, help="Bare wire diameter (0.2mm) or gauge (32awg).")
-@click.option("--grade", type=click.Choice(["1", "2", "3", "bare"]), default="1", show_default=True,
-              help="Enamel grade (IEC 60317), or bare wire.")
-@click.option("--overall", type=LENGTH, help="Measured overall (insulated) wire diameter; overrides --grade.")
 @click.option("--style", type=click.Choice(["layered", "staggered"]), default="layered", show_default=True,
               help="Turns directly above turns, or every second layer in the grooves (orthocyclic).")
 @click.option("--packing", type=click.FloatRange(min=1.0, max=2.0), default=1.0, show_default=True,
               help="Stretch of the pitches for hand winding (common practice: 1.05-1.1 careful, 1.15-1.2 random).")
 @click.option("--max-depth", type=LENGTH, help="Radial depth of the bobbin window; the build must fit it.")
-@click.option("--lead", type=QuantityType("m", allow_zero=True), default="0mm", show_default=True,
-              help="Lead allowance per end, added to the wire to cut.")
-@click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
-              help="Winding temperature for a second DC resistance figure.")
 @click.option("--method", type=click.Choice(list(MULTILAYER_METHODS)), default="filament", show_default=True,
               help="Exact turn-by-turn sum, or Wheeler's 1928 approximation.")
-@click.option("--measured", "measured", type=MeasurementType(), multiple=True,
-              help="A reading L@N on this coil, e.g. 470uH@200 (repeatable): calibrates the model.")
-@click.option("--at", "frequency", type=QuantityType("Hz"),
-              help="Operating frequency: the target is the inductance the coil shows there; adds SRF, R and Q.")
 @measurement_options
 @tuning_options
 @plot_option

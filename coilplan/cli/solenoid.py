@@ -6,15 +6,15 @@ import click
 
 from coilplan.cautions import tuned_circuit_cautions
 from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import MeasurementType
 from coilplan.cli._measured import (
     calibrate_form,
+    coil_options,
     conditions_from,
     measurement_options,
     resolve_target,
     tuning_options,
 )
-from coilplan.cli._types import CountType, QuantityType, TemperatureType
+from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SOLENOID_METHODS, Solenoid
 from coilplan.report.solenoid_text import solenoid_lines
@@ -35,28 +35,14 @@ def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
 
 
 @click.command()
-@click.option("--turns", type=CountType(), help="Turns wound (forward: gives the inductance).")
-@click.option("--target", type=QuantityType("H"), help="Inductance wanted, e.g. 10uH (inverse: gives the turns).")
+@coil_options
 @click.option("--former", type=LENGTH, help="Outside diameter of the former, e.g. 25mm.")
 @click.option("--diameter", type=LENGTH, help="Coil diameter to the wire centres (instead of --former).")
-@click.option("--wire", "wire_text", required=True,
-              help="Bare wire diameter (0.5mm, 20mil) or gauge (24awg, 26swg).")
-@click.option("--grade", type=click.Choice(["1", "2", "3", "bare"]), default="1", show_default=True,
-              help="Enamel grade (IEC 60317), or bare wire.")
-@click.option("--overall", type=LENGTH, help="Measured overall (insulated) wire diameter; overrides --grade.")
 @click.option("--pitch", type=LENGTH, help="Distance between turn centres; default close wound.")
 @click.option("--length", type=LENGTH, help="Fixed winding length to spread the turns over (instead of --pitch).")
 @click.option("--max-length", type=LENGTH, help="Usable length of the former; the winding must fit.")
-@click.option("--lead", type=QuantityType("m", allow_zero=True), default="0mm", show_default=True,
-              help="Lead allowance per end, added to the wire to cut.")
-@click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
-              help="Winding temperature for a second DC resistance figure.")
 @click.option("--method", type=click.Choice(list(SOLENOID_METHODS)), default="nagaoka-rosa",
               show_default=True, help="Inductance method (see the README for accuracy).")
-@click.option("--measured", "measured", type=MeasurementType(), multiple=True,
-              help="A reading L@N on this coil, e.g. 47uH@30 (repeatable): calibrates the model.")
-@click.option("--at", "frequency", type=QuantityType("Hz"),
-              help="Operating frequency: the target is the inductance the coil shows there; adds SRF, R and Q.")
 @click.option("--former-permittivity", type=click.FloatRange(min=1.0), default=1.0, show_default=True,
               help="Relative permittivity of the former, for the self-capacitance (solid polystyrene about 2.5).")
 @measurement_options

@@ -6,9 +6,15 @@ import click
 
 from coilplan.cautions import tuned_circuit_cautions
 from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import MeasurementType
-from coilplan.cli._measured import calibrate_form, conditions_from, measurement_options, resolve_target, tuning_options
-from coilplan.cli._types import CountType, QuantityType, TemperatureType
+from coilplan.cli._measured import (
+    calibrate_form,
+    coil_options,
+    conditions_from,
+    measurement_options,
+    resolve_target,
+    tuning_options,
+)
+from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SPIRAL_METHODS, FlatSpiral
@@ -22,27 +28,14 @@ LENGTH = QuantityType("m")
 
 
 @click.command()
-@click.option("--turns", type=CountType(), help="Turns wound (forward: gives the inductance).")
-@click.option("--target", type=QuantityType("H"), help="Inductance wanted, e.g. 20uH (inverse: gives the turns).")
+@coil_options
 @click.option("--inner", type=LENGTH, required=True, help="Inside diameter of the spiral, e.g. 30mm.")
-@click.option("--wire", "wire_text", required=True, help="Bare wire diameter (0.5mm) or gauge (24awg).")
-@click.option("--grade", type=click.Choice(["1", "2", "3", "bare"]), default="1", show_default=True,
-              help="Enamel grade (IEC 60317), or bare wire.")
-@click.option("--overall", type=LENGTH, help="Measured overall (insulated) wire diameter; overrides --grade.")
 @click.option("--spacing", type=QuantityType("m", allow_zero=True),
               help="Gap between adjacent turns (0 for touching enamelled turns).")
 @click.option("--outer", type=LENGTH,
               help="Largest outside diameter the turns must fit in (gap 0 when --spacing is not given).")
-@click.option("--lead", type=QuantityType("m", allow_zero=True), default="0mm", show_default=True,
-              help="Lead allowance per end, added to the wire to cut.")
-@click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
-              help="Winding temperature for a second DC resistance figure.")
 @click.option("--method", type=click.Choice(list(SPIRAL_METHODS)), default="filament", show_default=True,
               help="Exact turn-by-turn sum, or Wheeler's flat-spiral approximation.")
-@click.option("--measured", "measured", type=MeasurementType(), multiple=True,
-              help="A reading L@N on this coil, e.g. 20uH@18 (repeatable): calibrates the model.")
-@click.option("--at", "frequency", type=QuantityType("Hz"),
-              help="Operating frequency: the target is the inductance the coil shows there; adds SRF, R and Q.")
 @measurement_options
 @tuning_options
 @plot_option
