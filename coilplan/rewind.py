@@ -29,6 +29,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from coilplan.errors import InfeasibleError, InvalidInputError
+from coilplan.physics.frequency import self_resonant_frequency
 from coilplan.quantities import format_quantity
 from coilplan.solve import solve_turns
 
@@ -46,7 +47,6 @@ __all__ = [
     "low_frequency_readings",
     "model_fit",
     "rewind_fields",
-    "self_resonant_frequency",
 ]
 
 #: Meter accuracy assumed when none is given: ±1 % of reading, typical of a bench LCR meter's basic
@@ -142,11 +142,6 @@ def apparent_inductance(inductance, frequency, capacitance):
     denominator = 1.0 - omega**2 * inductance * np.asarray(capacitance, dtype=float)
     with np.errstate(divide="ignore", invalid="ignore"):
         return np.where(denominator > 0, inductance / denominator, np.nan)
-
-
-def self_resonant_frequency(inductance, capacitance):
-    """f = 1/(2π√(L C)), Hz."""
-    return 1.0 / (2.0 * np.pi * np.sqrt(np.asarray(inductance, dtype=float) * np.asarray(capacitance, dtype=float)))
 
 
 def low_frequency_readings(readings, conditions: Conditions) -> list[tuple[float, int]]:

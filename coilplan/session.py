@@ -44,6 +44,7 @@ from typing import Annotated, Literal
 import numpy as np
 from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator, model_validator
 
+from coilplan._validation import first_problem
 from coilplan.errors import InvalidInputError
 from coilplan.files import FileWriteError, write_atomically
 from coilplan.forms import ClosedCore
@@ -323,17 +324,9 @@ def _target_notices(log: TrimLog, fields: dict, conditions: Conditions) -> list[
 
 def _problem(error: ValidationError) -> str:
     """The first validation problem as 'field: message (got value)'; the count of any others."""
-    items = error.errors(include_url=False)
-    first = items[0]
-    where = ".".join(str(part) for part in first["loc"]) or "the document"
-    message = first["msg"].removeprefix("Value error, ")
-    text = f"{where}: {message[0].lower()}{message[1:]}"
-    if "input" in first and not isinstance(first["input"], (dict, list)):
-        shown = repr(first["input"])
-        text += f" (got {shown[:37] + '...' if len(shown) > 40 else shown})"
-    if len(items) > 1:
-        text += f"; and {len(items) - 1} more problem{'s' if len(items) > 2 else ''}"
-    return text
+    problem = first_problem(error)
+    where = ".".join(str(part) for part in problem.location) or "the document"
+    return f"{where}: {problem.message}{problem.got}{problem.more}"
 
 
 def load_log(path) -> TrimLog:

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import functools
 import math
 import warnings
 from dataclasses import dataclass
@@ -10,6 +11,7 @@ from typing import Literal, get_args
 import numpy as np
 
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
+from coilplan.forms._checks import between_whole_turns
 from coilplan.forms._checks import positive as _positive
 from coilplan.forms._losses import winding_resistance_factor
 from coilplan.physics import loops, solenoid
@@ -182,16 +184,12 @@ class Solenoid:
 
     def _filament_inductance(self, turns: np.ndarray):
         """Filament sum at whole turns; linear between whole numbers for the root finder."""
-        flat = np.atleast_1d(turns).ravel()
-        low = np.maximum(np.floor(flat), 1.0)
-        wanted = np.unique(np.concatenate([low, low + 1.0]))
-        values = {n: float(loops.solenoid_filament_inductance(
-            self.diameter, float(self.pitch_at(n)), self.wire.diameter, int(n))) for n in wanted}
-        value_low = np.array([values[n] for n in low])
-        value_high = np.array([values[n + 1.0] for n in low])
-        result = value_low + (flat - low) * (value_high - value_low)
-        return result.reshape(np.shape(turns))[()] if np.ndim(turns) == 0 else \
-            result.reshape(np.shape(turns))
+        @functools.cache
+        def at_whole(n: int) -> float:
+            return float(loops.solenoid_filament_inductance(self.diameter, float(self.pitch_at(n)),
+                                                            self.wire.diameter, n))
+
+        return between_whole_turns(turns, at_whole)
 
     def wire_length(self, turns):
         """Wire to cut, m: N helical turns of length √((πD)² + p²) plus a lead at each end."""

@@ -10,7 +10,7 @@ from typing import Literal, get_args
 import numpy as np
 
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
-from coilplan.forms._checks import positive
+from coilplan.forms._checks import between_whole_turns, positive
 from coilplan.forms._losses import winding_resistance_factor
 from coilplan.physics import multilayer
 from coilplan.quantities import format_length
@@ -136,15 +136,9 @@ class FlatSpiral:
 
     def exact_inductance(self, turns):
         """The filament sum, H, at whole turns; linear between whole numbers for the root finder."""
-        turns = np.asarray(turns, dtype=float)
         with warnings.catch_warnings():
             warnings.simplefilter("ignore", OutsideValidityWarning)
-            flat = np.atleast_1d(turns).ravel()
-            low = np.maximum(np.floor(flat), 1.0)
-            value_low = np.array([self._whole(int(n)) for n in low])
-            value_high = np.array([self._whole(int(n) + 1) for n in low])
-        result = (value_low + (flat - low) * (value_high - value_low)).reshape(np.shape(turns))
-        return result[()] if np.ndim(turns) == 0 else result
+            return between_whole_turns(turns, self._whole)
 
     def wheeler_inductance(self, turns):
         """Wheeler's value, H, on the sheet: radial width c = N·s, mean radius inner + c/2."""

@@ -31,6 +31,7 @@ from typing import Annotated, Literal
 
 from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError, field_validator, model_validator
 
+from coilplan._validation import first_problem
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import parse_quantity, parse_relative, parse_temperature
 
@@ -330,21 +331,14 @@ def _entry(document: dict, loc: tuple) -> tuple[str, str | None, int | None, str
 
 
 def _problem(file: str, text: str, document: dict, error: ValidationError) -> PlanFileError:
-    items = error.errors(include_url=False)
-    first = items[0]
-    label, table, index, field = _entry(document, tuple(first["loc"]))
-    message = first["msg"].removeprefix("Value error, ")
-    message = message[0].lower() + message[1:]
+    found = first_problem(error)
+    label, table, index, field = _entry(document, found.location)
+    message = found.message
     field_named = field is not None and not message.startswith(f"{field}:")
     if field is None and ":" in message.split(" ", 1)[0]:  # a model check names its own field
         field = message.split(":", 1)[0]
     where = f"{label}: {field}: " if field_named else f"{label}: "
-    problem = where + message
-    if "input" in first and not isinstance(first["input"], (dict, list, tuple)) and first["type"] != "missing":
-        shown = repr(first["input"])
-        problem += f" (got {shown[:37] + '...' if len(shown) > 40 else shown})"
-    if len(items) > 1:
-        problem += f"; and {len(items) - 1} more problem{'s' if len(items) > 2 else ''}"
+    problem = where + message + found.got + found.more
     line = _line_of(text, table, index, field) if table is not None else None
     return PlanFileError(file, problem, line)
 

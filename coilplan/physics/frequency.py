@@ -933,8 +933,8 @@ def self_resonant_frequency(inductance, capacitance):
 
     Examples
     --------
-    >>> print(f"{float(self_resonant_frequency(75e-6, 220e-12)) / 1e3:.2f} kHz")  # references.md §10
-    1239.02 kHz
+    >>> print(f"{float(self_resonant_frequency(100e-6, 100e-12)) / 1e3:.2f} kHz")  # references.md §10
+    1591.55 kHz
     """
     with np.errstate(divide="ignore"):
         return _out(1.0 / (2.0 * np.pi * np.sqrt(np.asarray(inductance, dtype=float)

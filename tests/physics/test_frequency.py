@@ -333,9 +333,9 @@ def test_litz_low_frequency_scaling_and_warning():
 
 
 def test_self_resonant_frequency_hand_worked():
-    """75 µH with 220 pF resonates at 1239.02 kHz (references.md §10), recomputed by mpmath."""
-    expected = 1 / (2 * mp.pi * mp.sqrt(mp.mpf("75e-6") * mp.mpf("220e-12")))
-    assert float(fq.self_resonant_frequency(75e-6, 220e-12)) == approx(float(expected), rel=1e-14, abs=0)
+    """100 µH with 100 pF resonates at 1591.55 kHz (references.md §10), recomputed by mpmath."""
+    expected = 1 / (2 * mp.pi * mp.sqrt(mp.mpf("100e-6") * mp.mpf("100e-12")))
+    assert float(fq.self_resonant_frequency(100e-6, 100e-12)) == approx(float(expected), rel=1e-14, abs=0)
     assert np.isposinf(fq.self_resonant_frequency(1e-6, 0.0))
 
 
