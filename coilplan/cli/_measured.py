@@ -21,6 +21,7 @@ __all__ = [
     "conditions_from",
     "measurement_options",
     "resolve_target",
+    "run_model_coil",
     "tuning_options",
 ]
 
@@ -135,3 +136,34 @@ def coil_options(function):
         click.option("--at", "frequency", type=QuantityType("Hz"),
                      help="Operating frequency: the target is the inductance the coil shows there; adds SRF, R, Q."),
     ])(function)
+
+
+def run_model_coil(command: str, make_form, result_of, render, title: str, options: dict) -> None:
+    """The whole of an air-cored form command, given how to make its form from the wire.
+
+    ``options`` are the command's parsed options (those of :func:`coil_options`,
+    :func:`measurement_options`, :func:`tuning_options`, ``--plot`` and ``--json``);
+    ``make_form(wire)`` builds the uncalibrated form; ``result_of`` is its results builder.
+    Readings scale the model (its shape is kept); the answer is rendered or printed as JSON.
+    """
+    from coilplan.cautions import tuned_circuit_cautions
+    from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit
+    from coilplan.cli.solenoid import one_of
+    from coilplan.wire import parse_wire
+
+    target, frequency = resolve_target(options["target"], options["target_frequency"],
+                                       options["tuning_capacitance"], options["frequency"])
+    one_of(("--turns", options["turns"]), ("--target", target))
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    conditions = conditions_from(tolerance=options["tolerance"], meter_freq=options["meter_freq"], at=frequency,
+                                 self_capacitance=options["self_capacitance"],
+                                 turns_uncertainty=options["turns_uncertainty"])
+    temperature = options["temperature"]
+    with captured_warnings() as warnings_:
+        form, readings = calibrate_form(lambda _: make_form(wire), options["measured"], conditions, "scale")
+        result = result_of(form, turns=options["turns"], target=target, temperature_C=temperature,
+                           measured=readings, frequency=frequency)
+    draw_impedance_plot(options["plot_path"], form, result, frequency, temperature,
+                        f"{title}, {result['turns']} turns")
+    emit(command=command, as_json=options["as_json"], inputs=context_inputs(), result=result, warnings_=warnings_,
+         cautions=tuned_circuit_cautions(options["target_frequency"] is not None), render=render)

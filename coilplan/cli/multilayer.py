@@ -4,22 +4,17 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cautions import tuned_circuit_cautions
-from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
+from coilplan.cli._common import json_option, plot_option
 from coilplan.cli._measured import (
-    calibrate_form,
     coil_options,
-    conditions_from,
     measurement_options,
-    resolve_target,
+    run_model_coil,
     tuning_options,
 )
 from coilplan.cli._types import QuantityType
-from coilplan.cli.solenoid import one_of
 from coilplan.forms import MULTILAYER_METHODS, MultilayerCoil
 from coilplan.report.coils_text import multilayer_lines
 from coilplan.results import multilayer_result
-from coilplan.wire import parse_wire
 
 __all__ = ["multilayer"]
 
@@ -41,29 +36,17 @@ LENGTH = QuantityType("m")
 @tuning_options
 @plot_option
 @json_option
-def multilayer(turns, target, former, width, wire_text, grade, overall, style, packing, max_depth, lead,
-               temperature, method, measured, frequency, meter_freq, tolerance, self_capacitance,
-               turns_uncertainty, target_frequency, tuning_capacitance, plot_path, as_json):
+def multilayer(**options):
     """Multilayer air-core coil: layers of turns across a fixed width.
 
     Forward: --turns N gives the inductance. Inverse: --target gives the whole
     number of turns. The exact method sums every turn as a circle at its own
     radius and axial position; Wheeler's figure is shown beside it.
     """
-    target, frequency = resolve_target(target, target_frequency, tuning_capacitance, frequency)
-    one_of(("--turns", turns), ("--target", target))
-    wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
-    conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
-                                 self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
 
-    def build(_):
-        return MultilayerCoil(former_diameter=former, width=width, wire=wire, style=style, packing=packing,
-                              max_depth=max_depth, lead=lead, method=method)
+    def make_form(wire):
+        return MultilayerCoil(former_diameter=options["former"], width=options["width"], wire=wire,
+                              style=options["style"], packing=options["packing"], max_depth=options["max_depth"],
+                              lead=options["lead"], method=options["method"])
 
-    with captured_warnings() as warnings_:
-        form, readings = calibrate_form(build, measured, conditions, "scale")
-        result = multilayer_result(form, turns=turns, target=target, temperature_C=temperature,
-                                   measured=readings, frequency=frequency)
-    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"multilayer coil, {result['turns']} turns")
-    emit(command="multilayer", as_json=as_json, inputs=context_inputs(), result=result, warnings_=warnings_,
-         cautions=tuned_circuit_cautions(target_frequency is not None), render=multilayer_lines)
+    run_model_coil("multilayer", make_form, multilayer_result, multilayer_lines, "multilayer coil", options)
