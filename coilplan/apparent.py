@@ -112,9 +112,11 @@ def frequency_fields(form, turns: int, frequency: float | None, temperature_C: f
     if frequency is None:
         return fields
     resistance = float(form.ac_resistance(turns, frequency, temperature_C))
+    core = _core_fields(form, turns, frequency)
+    total = resistance + core.get("core_loss_resistance_ohm", 0.0)
     below = frequency < fields["srf_Hz"]
     if below:
-        apparent_l, apparent_r = apparent_inductance_and_resistance(frequency, inductance, resistance, capacitance)
+        apparent_l, apparent_r = apparent_inductance_and_resistance(frequency, inductance, total, capacitance)
     else:
         apparent_l = apparent_r = math.nan
     if not below:
@@ -132,18 +134,41 @@ def frequency_fields(form, turns: int, frequency: float | None, temperature_C: f
         ac_resistance_ohm=resistance,
         apparent_inductance_H=float(apparent_l),
         apparent_resistance_ohm=float(apparent_r),
-        q=float(q_factor(inductance, resistance, frequency)),
+        q=float(q_factor(inductance, total, frequency)),
+        copper_q=float(q_factor(inductance, resistance, frequency)),
         q_terminals=float(q_factor(apparent_l, apparent_r, frequency)) if below else math.nan,
         srf_fraction=float(frequency / fields["srf_Hz"]),
     )
+    fields.update(core)
     return fields
+
+
+def _core_fields(form, turns: int, frequency: float) -> dict:
+    """The core's figures at ``frequency``: µ', loss tangent, dilution, loss resistance, core Q."""
+    if not hasattr(form, "core_resistance"):
+        return {}
+    if not math.isclose(form.frequency, frequency, rel_tol=1e-12):
+        form = form.at(frequency)
+    tangent, dilution = form.loss_tangent, form.dilution
+    return {
+        "core_loss_resistance_ohm": float(form.core_resistance(turns)),
+        "core_q": 1.0 / (tangent * dilution) if tangent * dilution > 0 else math.inf,
+        "core_loss_tangent": tangent,
+        "core_dilution": dilution,
+        "core_permeability": form.real_permeability,
+        "core_inductance_ratio": form.inductance_ratio,
+        "core_reference_frequency_Hz": form.spectrum.reference_frequency,
+        "inductance_reference_H": float(form.reference_inductance(turns)),
+        "core_loss_basis": form.spectrum.basis,
+    }
 
 
 def impedance_sweep(form, turns: int, *, centre: float | None = None, temperature_C: float = 20.0,
                     points: int = 400, capacitance: float | None = None) -> dict:
     """|Z| and Q of the coil from well below to beyond its self-resonance, for the plot.
 
-    Z is the parallel-C model (series L and R_ac(f), the self-capacitance across; see
+    Z is the parallel-C model (series L and R_ac(f), plus the core's µ'(f) and loss when the
+    form carries them, the self-capacitance across; see
     :func:`coilplan.physics.frequency.coil_impedance`); Q here is |Im Z|/Re Z, the coil as a
     meter across its terminals sees it, which falls to zero at the SRF (and is not drawn
     above it, where the coil is a capacitor).
@@ -161,6 +186,10 @@ def impedance_sweep(form, turns: int, *, centre: float | None = None, temperatur
     low = min(srf / 100.0, (centre or srf) / 10.0)
     frequencies = np.geomspace(low, 3.0 * srf, points)
     resistance = np.array([float(form.ac_resistance(turns, f, temperature_C)) for f in frequencies])
+    if hasattr(form, "core_resistance"):  # the core's µ' and loss at each frequency
+        seen = [form.at(f) for f in frequencies]
+        inductance = np.array([float(at.inductance(turns)) for at in seen])
+        resistance = resistance + np.array([float(at.core_resistance(turns)) for at in seen])
     impedance = coil_impedance(frequencies, inductance, resistance, capacitance)
     with np.errstate(divide="ignore", invalid="ignore"):
         quality = np.where(impedance.imag > 0, impedance.imag / impedance.real, np.nan)  # inductive side only

@@ -453,6 +453,8 @@ class _DispersionRow:
     basis: str = rule(choices=("snoek", "typical"))
     loss_factor: float = rule(ge=0, lt=1)
     loss_factor_frequency_Hz: float = rule(ge=0)  # noqa: N815
+    loss_factor_high: float = rule(ge=0, lt=1)
+    loss_factor_high_frequency_Hz: float = rule(gt=0)  # noqa: N815
     source: str = rule(min_length=1)
 
 
@@ -477,6 +479,10 @@ class Dispersion:
         Relative loss factor tanδ/µi (small-signal) at ``loss_factor_frequency``.
     loss_factor_frequency : float
         Hz.
+    loss_factor_high : float
+        tanδ/µi at ``loss_factor_high_frequency``, the top of the class's usual range.
+    loss_factor_high_frequency : float
+        Hz.
     source : str
         Where the row's values come from.
     """
@@ -487,12 +493,31 @@ class Dispersion:
     basis: str
     loss_factor: float
     loss_factor_frequency: float
+    loss_factor_high: float
+    loss_factor_high_frequency: float
     source: str
 
-    def permeability(self, frequency):
-        """Complex relative permeability µ' − jµ'' of the class at ``frequency`` (Hz).
+    def loss_tangent(self, frequency):
+        """tanδ = µ''/µ' of the class at ``frequency`` (Hz): the catalogue curve through its two loss factors.
 
-        See :func:`coilplan.physics.dispersion.complex_permeability`.
+        See :func:`coilplan.physics.dispersion.catalogue_loss_tangent`.
+
+        Examples
+        --------
+        >>> print(f"{float(material_dispersion('nizn-125').loss_tangent(3e7)):.3f}")
+        0.020
+        """
+        from coilplan.physics.dispersion import catalogue_loss_tangent
+
+        return catalogue_loss_tangent(frequency, self.mu_initial, self.relaxation_frequency, self.loss_factor,
+                                      self.loss_factor_frequency, self.loss_factor_high,
+                                      self.loss_factor_high_frequency)
+
+    def permeability(self, frequency):
+        """The relaxation model's complex relative permeability µ' − jµ'' of the class at ``frequency`` (Hz).
+
+        See :func:`coilplan.physics.dispersion.complex_permeability`. Its µ' is the one an answer
+        uses; its loss is only the cap on :meth:`loss_tangent`, which gives the loss in an answer.
 
         Examples
         --------
@@ -518,8 +543,13 @@ def _dispersions() -> dict[str, Dispersion]:
             raise DataFileError(_DISPERSION_FILE, 0, "name", f"{row.name!r} is not magnetic: no dispersion row")
         if row.name in table:
             raise DataFileError(_DISPERSION_FILE, 0, "name", f"the name {row.name!r} appears twice")
+        if not (row.loss_factor_high_frequency_Hz > row.loss_factor_frequency_Hz
+                and row.loss_factor_high >= row.loss_factor):
+            raise DataFileError(_DISPERSION_FILE, 0, "loss_factor_high",
+                                f"{row.name!r}: the high point must lie above the first in frequency and loss")
         table[row.name] = Dispersion(row.name, classes[row.name].mu_initial, row.relaxation_frequency_Hz,
-                                     row.basis, row.loss_factor, row.loss_factor_frequency_Hz, row.source)
+                                     row.basis, row.loss_factor, row.loss_factor_frequency_Hz, row.loss_factor_high,
+                                     row.loss_factor_high_frequency_Hz, row.source)
     return table
 
 

@@ -29,6 +29,7 @@ __all__ = [
     "format_length",
     "format_quantity",
     "parse_count",
+    "parse_loss_factor",
     "parse_measurement",
     "parse_pair",
     "parse_quantity",
@@ -265,6 +266,37 @@ def parse_measurement(text: str, option: str = "--measured") -> tuple[float, int
     return parse_pair(text, lambda part, name: parse_quantity(part, "H", name),
                       lambda part, name: parse_count(part, name), option,
                       "a measurement inductance@turns such as 120uH@36")
+
+
+def parse_loss_factor(text: str, option: str = "--loss-factor") -> tuple[float, float]:
+    """Read a relative loss factor and its frequency, ``tanδ/µi@f``: ``40e-6@1MHz`` or ``40ppm@1MHz``.
+
+    Returns
+    -------
+    tuple
+        (tanδ/µi as a plain number, frequency in Hz).
+
+    Examples
+    --------
+    >>> parse_loss_factor("40e-6@1MHz"), parse_loss_factor("25 ppm@100kHz")
+    ((4e-05, 1000000.0), (2.5e-05, 100000.0))
+    """
+    return parse_pair(text, _loss_factor_number, lambda part, name: parse_quantity(part, "Hz", name), option,
+                      "a relative loss factor tanδ/µi@frequency such as 40e-6@1MHz or 40ppm@1MHz")
+
+
+def _loss_factor_number(text: str, option: str) -> float:
+    stripped = str(text).strip()
+    divisor = 1.0
+    if stripped.lower().endswith("ppm"):
+        stripped, divisor = stripped[:-3].strip(), 1e6
+    try:
+        value = float(stripped) / divisor
+    except ValueError:
+        raise InvalidInputError(option, "a plain number or ppm before the @", text) from None
+    if not (math.isfinite(value) and 0 < value < 0.01):
+        raise InvalidInputError(option, "a loss factor above 0 and below 0.01 (10000 ppm)", text)
+    return value
 
 
 _NUMBER_AND_UNIT = re.compile(r"^([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(%|ppm)$", re.IGNORECASE)

@@ -518,7 +518,8 @@ def test_malformed_dispersion_row_names_file_line_and_column(change, column):
 
 def test_dispersion_row_for_an_unknown_class_is_a_data_error(monkeypatch):
     """A dispersion row naming a class missing from materials.csv raises DataFileError on the name column."""
-    rows = (materials_module._DispersionRow("nizn-999", 1e7, "typical", 1e-5, 1e5, "invented for the test"),)
+    rows = (materials_module._DispersionRow("nizn-999", 1e7, "typical", 1e-5, 1e5, 1e-4, 1e7,
+                                                     "invented for the test"),)
     real_load = materials_module.load_table
     monkeypatch.setattr(materials_module, "load_table",
                         lambda file, model: rows if file == "dispersion.csv" else real_load(file, model))
@@ -530,3 +531,29 @@ def test_dispersion_row_for_an_unknown_class_is_a_data_error(monkeypatch):
     finally:
         monkeypatch.undo()
         materials_module._dispersions.cache_clear()
+
+
+def test_dispersion_high_point_below_the_first_is_a_data_error(monkeypatch):
+    """A loss factor at the top of the range below the low-frequency one (a falling loss line) is refused."""
+    rows = (materials_module._DispersionRow("nizn-125", 5.4e7, "snoek", 3e-5, 1e5, 1e-5, 3e7, "invented for the test"),)
+    real_load = materials_module.load_table
+    monkeypatch.setattr(materials_module, "load_table",
+                        lambda file, model: rows if file == "dispersion.csv" else real_load(file, model))
+    materials_module._dispersions.cache_clear()
+    try:
+        with pytest.raises(DataFileError) as caught:
+            materials_module.material_dispersion("nizn-125")
+        assert caught.value.column == "loss_factor_high"
+    finally:
+        monkeypatch.undo()
+        materials_module._dispersions.cache_clear()
+
+
+def test_every_class_loss_line_rises_to_its_usual_range_top():
+    """Each class's second loss point sits at the top of its usual range (materials.csv) — the data's own rule."""
+    for core in materials_module.all_materials():
+        if core.family == "air":
+            continue
+        spread = materials_module.material_dispersion(core.name)
+        assert spread.loss_factor_high_frequency == core.frequency_range[1]
+        assert spread.loss_factor_high > spread.loss_factor

@@ -9,9 +9,9 @@ import click
 
 from coilplan.cli._types import CountType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
-from coilplan.quantities import format_quantity, parse_measurement
+from coilplan.quantities import format_quantity, parse_loss_factor, parse_measurement
 
-__all__ = ["CoreChoice", "core_options", "drive_arguments", "resolve_core"]
+__all__ = ["CoreChoice", "core_at_frequency", "core_options", "drive_arguments", "resolve_core"]
 
 LENGTH = QuantityType("m")
 
@@ -30,6 +30,20 @@ class MeasurementType(click.ParamType):
             self.fail(f"expected {error.expected}; got {value!r}", param, ctx)
 
 
+class LossFactorType(click.ParamType):
+    """``tanδ/µi@f``: a relative loss factor at its frequency."""
+
+    name = "tanδ/µi@f"
+
+    def convert(self, value, param, ctx):
+        if isinstance(value, tuple):
+            return value
+        try:
+            return parse_loss_factor(value)
+        except InvalidInputError as error:
+            self.fail(f"expected {error.expected}; got {value!r}", param, ctx)
+
+
 def core_options(function):
     """The options every cored command takes: turns/target, wire, core material, drive."""
     options = [
@@ -44,6 +58,9 @@ def core_options(function):
         click.option("--al", type=QuantityType("H/t2"), help="Known AL value, inductance per turn², e.g. 420nH."),
         click.option("--measured", "measured", type=MeasurementType(), multiple=True,
                      help="A reading L@N on a test winding, e.g. 150uH@40 (repeatable): gives the AL."),
+        click.option("--loss-factor", type=LossFactorType(),
+                     help="The core material's relative loss factor tanδ/µi at a frequency, e.g. 40e-6@1MHz "
+                          "(a data sheet's figure): gives the core's loss at --at."),
         click.option("--bsat", type=QuantityType("T"),
                      help="Saturation flux density, if known (else from --material)."),
         click.option("--current", type=QuantityType("A", allow_zero=True), default="0A",
@@ -111,3 +128,38 @@ def drive_arguments(current, ac_current, ac_voltage, frequency) -> dict:
     if ac_voltage is not None and ac_current:
         raise InvalidInputError("--ac-voltage", "either --ac-voltage or --ac-current, not both", None)
     return {"dc_current": current, "ac_current": ac_current, "ac_voltage": ac_voltage, "frequency": frequency}
+
+
+def core_at_frequency(form, core: CoreChoice, *, mu: float | None, loss_factor, frequency, reference_frequency):
+    """``form`` with its core's µ' and loss at the operating ``frequency``, when the core's material is known.
+
+    The material is known from --material (its class's dispersion) or --loss-factor; the form
+    is calibrated at ``reference_frequency`` (the meter's, for readings; else 0, the class's
+    low-frequency µi). Without either, or without --at, the form comes back as it is.
+    """
+    if frequency is None or mu is None or (core.material_name is None and loss_factor is None):
+        return form
+    import warnings
+
+    from coilplan.core_frequency import CoreSpectrum, at_frequency
+    from coilplan.errors import OutsideValidityWarning
+    from coilplan.materials import material as find_material
+    from coilplan.materials import material_dispersion
+
+    dispersion = material_dispersion(core.material_name) if core.material_name is not None else None
+    if dispersion is None and loss_factor is None:
+        return form
+    if mu <= 1.0:
+        return form
+    if core.material_name is not None:
+        usual = find_material(core.material_name).frequency_range
+        high = usual[1] if usual is not None else None
+        if high is not None and frequency > high:
+            warnings.warn(f"{format_quantity(frequency, 'Hz')} is above the usual range of {core.material_name} "
+                          f"(up to {format_quantity(high, 'Hz')}): its permeability and loss there are far from "
+                          f"typical, and the core's figures are only an indication", OutsideValidityWarning,
+                          stacklevel=2)
+    value, at = loss_factor if loss_factor is not None else (None, None)
+    spectrum = CoreSpectrum(mu=mu, reference_frequency=reference_frequency or 0.0, dispersion=dispersion,
+                            loss_factor=value, loss_factor_frequency=at)
+    return at_frequency(form, spectrum, frequency)

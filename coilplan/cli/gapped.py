@@ -7,7 +7,7 @@ import click
 from coilplan.cautions import tuned_circuit_cautions
 from coilplan.choke import design_choke
 from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
     conditions_from,
@@ -42,8 +42,9 @@ __all__ = ["gapped"]
 @plot_option
 @json_option
 def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns, target, wire_text, grade,
-           overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
-           lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance,
+           overall, mu, material, al, measured, loss_factor, bsat, current, ac_current, ac_voltage, frequency,
+           temperature, lead, meter_freq, tolerance, self_capacitance, turns_uncertainty,
+           target_frequency, tuning_capacitance,
            plot_path,
            as_json):
     """Gapped core: AL = µ0·Ae/(gap + le/µr), with the fringing correction shown apart.
@@ -65,6 +66,11 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
     if known_al is None and core.mu_r is None:
         raise InvalidInputError("--mu", "the core's permeability (--mu or --material), or --al / --measured", None)
     mode = "given"
+
+    def at_operating_frequency(form):
+        return core_at_frequency(form, core, mu=core.mu_r, loss_factor=loss_factor, frequency=frequency,
+                                 reference_frequency=meter_freq if measured else None)
+
     with captured_warnings() as warnings_:
         template = GappedCore(ae=ae, le=le, wire=wire, gap=0.0 if known_al is None else None, mu_r=core.mu_r,
                               al=known_al, window_width=window_width, window_depth=window_depth,
@@ -81,11 +87,13 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
                 return base if fitted_al is None else GappedCore(**{**base.__dict__, "al": fitted_al})
 
             form, readings = calibrate_form(build, measured, conditions, "al")
+            form = at_operating_frequency(form)
             result = gapped_result(form, turns=turns, target=target, temperature_C=temperature,
                                    measured=readings, **drive)
         elif turns is not None and target is not None:
             mode = "gap for turns"
             form = GappedCore(**{**template.__dict__, "gap": template.gap_for_al(target / turns**2)})
+            form = at_operating_frequency(form)
             result = gapped_result(form, turns=turns, temperature_C=temperature, **drive)
             result["asked_H"] = target
         elif target is not None and (current or ac_current):
@@ -94,6 +102,7 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
                 raise InvalidInputError("--max-flux", "a flux-density limit: --max-flux, --bsat or --material", None)
             limit = max_flux if max_flux is not None else NEAR_SATURATION * core.saturation_flux_density
             form, chosen = design_choke(template, target, current + ac_current, limit)
+            form = at_operating_frequency(form)
             result = gapped_result(form, turns=chosen, temperature_C=temperature, **drive)
             result["asked_H"] = target
             result["max_flux_density_T"] = limit

@@ -19,6 +19,7 @@ from coilplan.materials import (
     PermeabilityMatch,
     all_materials,
     material,
+    material_dispersion,
     materials_for_permeability,
 )
 from coilplan.quantities import format_quantity
@@ -102,8 +103,19 @@ def _material_result(core: Material) -> dict:
         "resistivity_ohm_m": core.resistivity,
         "resistivity_class": core.resistivity_class,
         "loss_note": core.loss_note,
+        **_dispersion_result(core),
         "source": core.source,
     }
+
+
+def _dispersion_result(core: Material) -> dict:
+    if core.family == "air":
+        return {"relaxation_frequency_Hz": None, "loss_factor": []}
+    spread = material_dispersion(core.name)
+    return {"relaxation_frequency_Hz": spread.relaxation_frequency,
+            "loss_factor": [{"loss_factor": spread.loss_factor, "frequency_Hz": spread.loss_factor_frequency},
+                            {"loss_factor": spread.loss_factor_high,
+                             "frequency_Hz": spread.loss_factor_high_frequency}]}
 
 
 def _match_result(match: PermeabilityMatch) -> dict:
@@ -166,9 +178,24 @@ def _one_material_lines(core: Material) -> list[str]:
         ("resistivity", _resistivity(core)),
         ("used as an inductor", _frequencies(core)),
         ("losses", core.loss_note),
+        *_dispersion_rows(core),
         ("source", core.source),
     ]
     return [f"{core.name}: {core.description}", *aligned_rows(rows)]
+
+
+def _dispersion_rows(core: Material) -> list[tuple[str, str]]:
+    """The class's frequency dispersion (dispersion.csv), as the answers at --at use it."""
+    if core.family == "air":
+        return []
+    spread = material_dispersion(core.name)
+    basis = "Snoek's law" if spread.basis == "snoek" else "typical"
+    return [
+        ("loss factor tanδ/μi", f"{spread.loss_factor:.2g} at {_compact(spread.loss_factor_frequency, 'Hz')}, "
+                                f"{spread.loss_factor_high:.2g} at {_compact(spread.loss_factor_high_frequency, 'Hz')}"
+                                f" (typical, from memory: a factor of two or more either way)"),
+        ("relaxation", f"{_compact(spread.relaxation_frequency, 'Hz')} ({basis}): where μ' has fallen to half"),
+    ]
 
 
 @click.command("materials")

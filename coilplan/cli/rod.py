@@ -8,7 +8,7 @@ import click
 
 from coilplan.cautions import tuned_circuit_cautions
 from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
     conditions_from,
@@ -45,8 +45,9 @@ _UNCALIBRATED = ("the rod model is uncalibrated: expect tens of percent from a r
 @plot_option
 @json_option
 def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_length, turns, target, wire_text,
-        grade, overall, mu, material, al, measured, bsat, current, ac_current, ac_voltage, frequency, temperature,
-        lead, meter_freq, tolerance, self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance,
+        grade, overall, mu, material, al, measured, loss_factor, bsat, current, ac_current, ac_voltage, frequency,
+        temperature, lead, meter_freq, tolerance, self_capacitance, turns_uncertainty,
+        target_frequency, tuning_capacitance,
         plot_path,
         as_json):
     """Coil on a ferrite rod: the rod's apparent permeability from a cylinder's demagnetising
@@ -72,6 +73,8 @@ def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_leng
 
     with captured_warnings() as warnings_:
         form, readings = calibrate_form(build, measured, conditions, "scale")
+        form = core_at_frequency(form, core, mu=form.mu_initial, loss_factor=loss_factor, frequency=frequency,
+                                 reference_frequency=meter_freq if measured else None)
         if readings is None:
             warnings.warn(_UNCALIBRATED, OutsideValidityWarning, stacklevel=1)
         result = rod_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings, **drive)

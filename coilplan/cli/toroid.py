@@ -6,7 +6,7 @@ import click
 
 from coilplan.cautions import tuned_circuit_cautions
 from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_options, drive_arguments, resolve_core
+from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
     conditions_from,
@@ -38,7 +38,7 @@ __all__ = ["toroid"]
 @plot_option
 @json_option
 def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grade, overall, mu, material, al, measured,
-           bsat, current, ac_current, ac_voltage, frequency, temperature, lead, meter_freq, tolerance,
+           loss_factor, bsat, current, ac_current, ac_voltage, frequency, temperature, lead, meter_freq, tolerance,
            self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, plot_path, as_json):
     """Ring core (toroid) of rectangular section: AL by IEC 60205, turns, fit and saturation.
 
@@ -63,6 +63,8 @@ def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grad
 
     with captured_warnings() as warnings_:
         form, readings = calibrate_form(build, measured, conditions, "al")
+        form = core_at_frequency(form, core, mu=form.permeability(), loss_factor=loss_factor, frequency=frequency,
+                                 reference_frequency=meter_freq if measured else None)
         result = toroid_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings,
                                **drive)
         if core.material_name is None and result["mu_r_implied"]:

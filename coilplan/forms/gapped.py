@@ -138,6 +138,23 @@ class GappedCore:
                 break
         return math.sqrt(low * high)
 
+    def permeability_response(self):
+        """g(µ) = AL(µ) at this core's gap; None when the permeability is not known.
+
+        With a measured AL the gap is the one that gives it (:meth:`gap_for_al`); a measured
+        AL at or above the ungapped core's says the gap is negligible, and g(µ) = µ.
+        """
+        if self.mu_r is None:
+            return None
+        gap = self.gap
+        if self.al is not None:
+            try:
+                gap = self.gap_for_al(float(self.al))
+            except InfeasibleError:
+                return lambda mu: mu
+        factor = self.fringing_factor(gap)
+        return lambda mu: float(gapped_al(self.ae, self.le, gap, mu)) * factor
+
     # protocol -----------------------------------------------------------------
     def inductance(self, turns):
         """L = AL·N², H."""

@@ -121,6 +121,11 @@ class RodCoil:
         """The rod's apparent (fluxmetric) permeability µi/(1 + N_f(µi − 1))."""
         return float(rod_permeability(self.mu_initial, self.rod_length / self.rod_diameter))
 
+    def permeability_response(self):
+        """g(µ) = µrod(µ): the rod's apparent permeability sets the core's share of L (an approximation)."""
+        ratio = self.rod_length / self.rod_diameter
+        return lambda mu: float(rod_permeability(mu, ratio))
+
     def air_inductance(self, turns):
         """The same winding with no rod (Nagaoka current sheet), H."""
         turns = np.asarray(turns, dtype=float)

@@ -7,6 +7,7 @@ from dataclasses import dataclass, field
 from typing import Literal
 
 import numpy as np
+from scipy.constants import mu_0
 
 from coilplan.errors import InvalidInputError
 from coilplan.forms._checks import positive
@@ -188,6 +189,17 @@ class Toroid:
     def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
         """Resistance at ``frequency``, ohm: DC resistance × the skin-effect ratio (turns spread round the ring)."""
         return self.resistance(turns, temperature_C) * winding_resistance_factor(self.wire, frequency, temperature_C)
+
+    def permeability(self) -> float:
+        """The core's relative permeability: ``mu_r``, or the one the AL value implies, AL·le/(µ0·Ae)."""
+        if self.mu_r is not None:
+            return float(self.mu_r)
+        parameters = self.effective_parameters()
+        return float(self.al * parameters["le"] / (mu_0 * parameters["ae"]))
+
+    def permeability_response(self):
+        """g(µ) = µ: a closed ungapped core's L is proportional to its permeability."""
+        return lambda mu: mu
 
     def core_area(self) -> float:
         """Effective cross-section Ae, m²."""

@@ -95,9 +95,10 @@ def frequency_rows(result: dict) -> list[tuple[str, ...]]:
         note = (f"Knight, former permittivity {permittivity:g}; Medhurst's table gives "
                 f"{format_quantity(result['medhurst_self_capacitance_F'], 'F', 3)} (solid polystyrene formers)")
     if not result["self_capacitance_F"] > 0:  # one layer of a layered winding: no layer-to-layer term
-        return [("self-capacitance", "not estimated", "a single layer: the layer-to-layer estimate gives none")]
-    rows = [("self-capacitance", format_quantity(result["self_capacitance_F"], "F", 3), note),
-            ("self-resonance", format_quantity(result["srf_Hz"], "Hz", 3), "with that self-capacitance alone")]
+        rows = [("self-capacitance", "not estimated", "a single layer: the layer-to-layer estimate gives none")]
+    else:
+        rows = [("self-capacitance", format_quantity(result["self_capacitance_F"], "F", 3), note),
+                ("self-resonance", format_quantity(result["srf_Hz"], "Hz", 3), "with that self-capacitance alone")]
     if "frequency_Hz" in result and "q" in result:
         at = format_quantity(result["frequency_Hz"], "Hz", 4)
         below = result["apparent_inductance_H"] == result["apparent_inductance_H"]  # NaN above the SRF
@@ -107,15 +108,32 @@ def frequency_rows(result: dict) -> list[tuple[str, ...]]:
         rows.append((f"at {at}", henry(result["apparent_inductance_H"]), "apparent inductance"))
         rows.append(("AC resistance", format_quantity(result["ac_resistance_ohm"], "ohm", 3),
                      f"copper at {at}: skin and proximity effect"))
-        cored = "al_H" in result or "rod_permeability" in result
-        label = "copper Q" if cored else "Q"
-        note = "ωL/R of the copper alone"
-        if cored:
-            note += ": the core's own loss, often the larger at RF, is not modelled yet, so the coil's Q is lower"
-        rows.append((label, f"{result['q']:.0f}", note))
+        rows += _core_rows(result, at)
         if result.get("srf_fraction", 0) >= 0.1:
             rows.append(("", f"{result['q_terminals']:.0f}", "at the terminals, lowered by the self-capacitance"))
     return rows
+
+
+def _core_rows(result: dict, at: str) -> list[tuple[str, ...]]:
+    """The core at the operating frequency, and the Q: copper, core and the whole coil."""
+    cored = "al_H" in result or "rod_permeability" in result
+    if not cored:
+        return [("Q", f"{result['q']:.0f}", "ωL/R of the copper alone")]
+    if "core_q" not in result:
+        return [("copper Q", f"{result['q']:.0f}",
+                 "ωL/R of the copper alone; the core's loss is not estimated (give --material, or --loss-factor "
+                 "tanδ/µi@f from the core's data sheet), so the coil's Q is lower")]
+    reference = result["core_reference_frequency_Hz"]
+    where = f"its value at {format_quantity(reference, 'Hz', 4)}" if reference else "its low-frequency value"
+    return [
+        ("core permeability", f"{result['core_permeability']:.4g}",
+         f"at {at}: {result['core_inductance_ratio']:.2%} of {where}, and the turns allow for it"),
+        ("core loss", format_quantity(result["core_loss_resistance_ohm"], "ohm", 3),
+         f"in series: loss tangent {result['core_loss_tangent']:.3g}"
+         + (f" × dilution {result['core_dilution']:.3g}" if result["core_dilution"] < 0.995 else "")
+         + f", {result['core_loss_basis']}"),
+        ("Q", f"{result['q']:.0f}", f"ωL/R: copper alone {result['copper_q']:.0f}, core alone {result['core_q']:.0f}"),
+    ]
 
 
 def winding_rows(result: dict) -> list[tuple[str, ...]]:

@@ -65,8 +65,10 @@ def cored_cautions(result: dict, temperature_C: float, *, material_name: str | N
 
 
 def _winding_fields(form, turns: int, temperature_C: float) -> dict:
+    # the coil's own inductance at the meter's frequency; at --at the core's change is in core_inductance_ratio
+    own = getattr(form, "reference_inductance", form.inductance)
     return {
-        "inductance_H": float(form.inductance(turns)),
+        "inductance_H": float(own(turns)),
         "wire_length_m": float(form.wire_length(turns)),
         "lead_m": form.lead,
         "dc_resistance_ohm": float(form.resistance(turns, 20.0)),
@@ -104,11 +106,10 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
     result = turns_block(form, turns=turns, target=target, measured=measured, frequency=drive.get("frequency"))
     chosen = result["turns"]
     parameters = form.effective_parameters()
-    implied_mu = form.al * parameters["le"] / (mu_0 * parameters["ae"])
     result.update(
         al_H=form.al,
         al_basis=form.al_basis,
-        mu_r=form.mu_r if form.mu_r is not None else implied_mu,
+        mu_r=form.permeability(),
         mu_r_implied=form.mu_r is None,
         inner_diameter_m=form.inner_diameter,
         outer_diameter_m=form.outer_diameter,

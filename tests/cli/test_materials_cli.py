@@ -18,7 +18,7 @@ MATERIAL_KEYS = {
     "name", "family", "description", "mu_initial", "mu_low", "mu_high",
     "saturation_flux_density_T", "saturation_flux_density_100C_T", "curie_C",
     "frequency_low_Hz", "frequency_high_Hz", "resistivity_ohm_m", "resistivity_class",
-    "loss_note", "source",
+    "loss_note", "source", "relaxation_frequency_Hz", "loss_factor",
 }
 
 
@@ -171,3 +171,14 @@ def test_listed_in_top_level_help():
     result = CliRunner().invoke(main, ["--help"])
     assert result.exit_code == 0
     assert any(line.split()[:1] == ["materials"] for line in result.stdout.splitlines())
+
+
+def test_one_class_shows_its_loss_factors_as_the_csv_gives_them():
+    """The detail and the JSON carry dispersion.csv's two loss-factor points and the relaxation frequency."""
+    rows = next(line.split(",") for line in (Path(__file__).parents[2] / "core_data" / "dispersion.csv").read_text(
+        encoding="utf-8").splitlines() if line.startswith("nizn-250,"))
+    output = CliRunner().invoke(main, ["materials", "nizn-250", "--json"]).stdout
+    document = json.loads(output)["result"]["materials"][0]
+    assert document["relaxation_frequency_Hz"] == float(rows[1])
+    assert [point["loss_factor"] for point in document["loss_factor"]] == [float(rows[3]), float(rows[5])]
+    assert [point["frequency_Hz"] for point in document["loss_factor"]] == [float(rows[4]), float(rows[6])]
