@@ -229,7 +229,9 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
     tuple
         (result fields, warnings). Fields: ``turns_now``, ``turns``, ``turns_exact``,
         ``turns_change``, ``turns_range``, ``inductance_H`` (low-frequency, at the
-        recommended turns), ``apparent_inductance_H`` (at the operating frequency),
+        recommended turns, as the meter will read it at its own frequency; for a form
+        seen with its core at the operating frequency this and the other meter figures
+        are divided by its ``inductance_ratio``), ``apparent_inductance_H`` (at the operating frequency),
         ``target_H``, ``target_low_frequency_H``, ``turns_below``/``turns_above`` and their
         inductances, ``uncertainty``, ``wire_change_m``, ``explanation``, ``plan``.
     """
@@ -252,20 +254,23 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
                    round(high_end) if math.isfinite(high_end) else None]
     chosen = int(solution.turns)
     change = chosen - turns_now
+    # a form seen with its core at the operating frequency solves in those terms; the figures a
+    # meter will show are at its own frequency, where the readings were taken
+    meter = 1.0 / getattr(form, "inductance_ratio", 1.0)
     fields = {
         "turns_now": turns_now,
         "turns": chosen,
         "turns_exact": float(solution.turns_exact),
         "turns_change": change,
-        "inductance_H": float(solution.inductance),
+        "inductance_H": float(solution.inductance) * meter,
         "turns_range": turns_range,
         "turns_range_exact": [low_end, high_end],
         "turns_below": int(solution.turns_below),
         "turns_above": int(solution.turns_above),
-        "inductance_below_H": float(solution.inductance_below),
-        "inductance_above_H": float(solution.inductance_above),
+        "inductance_below_H": float(solution.inductance_below) * meter,
+        "inductance_above_H": float(solution.inductance_above) * meter,
         "target_H": float(target),
-        "target_low_frequency_H": low_target,
+        "target_low_frequency_H": low_target * meter,
         "uncertainty": uncertainty,
         "tolerance": conditions.tolerance,
         "tolerance_assumed": conditions.tolerance_assumed,
