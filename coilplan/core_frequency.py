@@ -27,10 +27,12 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
+from coilplan.quantities import format_quantity
+
 if TYPE_CHECKING:
     from coilplan.materials import Dispersion
 
-__all__ = ["CoreAtFrequency", "CoreSpectrum", "at_frequency", "permeability_response"]
+__all__ = ["CoreAtFrequency", "CoreSpectrum", "at_frequency", "loss_factor_from_q", "permeability_response"]
 
 # relative step for the numerical derivative of ln g: central differences are good to ~1e-10 here
 _STEP = 1e-5
@@ -51,6 +53,8 @@ class CoreSpectrum:
     loss_factor, loss_factor_frequency : float, optional
         A relative loss factor tanδ/µi the user read (a data sheet), at its frequency: the
         class's loss curve is scaled through it, or with no class taken flat in frequency.
+    loss_factor_source : str
+        Where the loss factor came from, in words ("given", "from the Q reading ...").
     """
 
     mu: float
@@ -58,6 +62,7 @@ class CoreSpectrum:
     dispersion: Dispersion | None = None
     loss_factor: float | None = None
     loss_factor_frequency: float | None = None
+    loss_factor_source: str = "given"
 
     def __post_init__(self) -> None:
         if self.dispersion is None and self.loss_factor is None:
@@ -94,8 +99,11 @@ class CoreSpectrum:
     def basis(self) -> str:
         """Where the loss figure comes from, in words."""
         if self.loss_factor is not None:
-            given = f"loss factor {self.loss_factor:.3g} given"
-            return given if self.dispersion is None else f"{given}, shaped by {self.dispersion.name}"
+            given = (f"loss factor {self.loss_factor:.3g} at {format_quantity(self.loss_factor_frequency, 'Hz')} "
+                     f"{self.loss_factor_source}")
+            if self.dispersion is None:
+                return f"{given}, taken flat in frequency (name the class, --material, for its rise)"
+            return f"{given}, rising as {self.dispersion.name} does"
         return f"typical of {self.dispersion.name}, rough (a factor of two or more either way)"
 
 
@@ -174,3 +182,29 @@ def at_frequency(form, spectrum: CoreSpectrum | None, frequency: float | None):
     if response is None:
         return form
     return CoreAtFrequency(form, spectrum, float(frequency), response)
+
+
+def loss_factor_from_q(q_reading: float, frequency: float, inductance: float, copper_resistance: float,
+                       dilution: float, mu_low_frequency: float) -> float | None:
+    r"""The material's relative loss factor from a Q the meter read on the winding.
+
+    .. math::
+
+        \frac{1}{Q} = \frac{R_{cu} + R_{core}}{\omega L},\quad R_{core} = \omega L \tan\delta\, D
+        \quad\Rightarrow\quad
+        \frac{\tan\delta}{\mu_i} = \frac{1/Q - R_{cu}/(\omega L)}{D\,\mu_i}
+
+    Returns None when the reading leaves no core loss (its Q at or above the copper's alone:
+    the core's loss is below what the reading can tell). The self-capacitance is neglected,
+    which is right well below self-resonance, where a meter's Q is read.
+
+    Examples
+    --------
+    >>> round(loss_factor_from_q(100.0, 1e5, 1e-3, 1.0, 1.0, 2000.0) * 1e6, 3)  # tanδ = 0.01 − 0.0016
+    4.204
+    """
+    omega_l = 2.0 * math.pi * frequency * inductance
+    core = 1.0 / q_reading - copper_resistance / omega_l
+    if not core > 0 or not dilution > 0:
+        return None
+    return core / (dilution * mu_low_frequency)

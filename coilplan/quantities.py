@@ -32,6 +32,7 @@ __all__ = [
     "parse_loss_factor",
     "parse_measurement",
     "parse_pair",
+    "parse_q_reading",
     "parse_quantity",
     "parse_relative",
     "parse_temperature",
@@ -283,6 +284,28 @@ def parse_loss_factor(text: str, option: str = "--loss-factor") -> tuple[float, 
     """
     return parse_pair(text, _loss_factor_number, lambda part, name: parse_quantity(part, "Hz", name), option,
                       "a relative loss factor tanδ/µi@frequency such as 40e-6@1MHz or 40ppm@1MHz")
+
+
+def parse_q_reading(text: str, option: str = "--measured-q") -> tuple[float, float]:
+    """Read a Q the meter showed and its test frequency, ``Q@f``: ``85@100kHz``.
+
+    Examples
+    --------
+    >>> parse_q_reading("85@100kHz")
+    (85.0, 100000.0)
+    """
+    return parse_pair(text, _q_number, lambda part, name: parse_quantity(part, "Hz", name), option,
+                      "a Q reading Q@frequency such as 85@100kHz")
+
+
+def _q_number(text: str, option: str) -> float:
+    try:
+        value = float(str(text).strip())
+    except ValueError:
+        raise InvalidInputError(option, "a plain number (the Q) before the @", text) from None
+    if not (math.isfinite(value) and 0.5 <= value <= 1e5):
+        raise InvalidInputError(option, "a Q from 0.5 to 100000", text)
+    return value
 
 
 def _loss_factor_number(text: str, option: str) -> float:

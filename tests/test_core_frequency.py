@@ -200,3 +200,50 @@ def test_a_plot_includes_the_core_loss(tmp_path):
     result = run_json(*RING, "--material", "nizn-125", "--turns", "13", "--at", "7MHz")["result"]
     q_at = np.interp(math.log(7e6), np.log(sweep["frequency_Hz"]), sweep["q"])
     assert q_at == pytest.approx(result["q_terminals"], rel=5e-3)
+
+
+# --------------------------------------------------------------------------- the loss from a Q reading
+
+
+def test_a_q_reading_inverts_the_forward_model():
+    """Read back the Q the model itself gives at 100 kHz (1/Q = (R_cu + R_core)/ωL): the loss factor found
+    from it is the class's, so the answer at 7 MHz is the class-only answer."""
+    plain = run_json(*RING, "--material", "nizn-125", "--turns", "13", "--at", "100kHz")["result"]
+    reading = f"{plain['q']:.12g}@100kHz"
+    inductance = f"{plain['inductance_H'] * plain['core_inductance_ratio'] * 1e6:.12g}uH@13"  # as read at 100 kHz
+    found = run_json(*RING, "--material", "nizn-125", "--measured", inductance, "--measured-q", reading,
+                     "--meter-freq", "100kHz", "--turns", "13", "--at", "7MHz")["result"]
+    expected = run_json(*RING, "--material", "nizn-125", "--turns", "13", "--at", "7MHz")["result"]
+    assert found["core_loss_tangent"] == pytest.approx(expected["core_loss_tangent"], rel=1e-6)
+    assert "Q reading" in found["core_loss_basis"]
+
+
+def test_a_q_reading_without_a_class_is_taken_flat():
+    """With no class the loss factor from the reading holds at every frequency: tanδ at --at is the one read."""
+    result = run_json(*RING, "--measured", "10uH@13", "--measured-q", "90@1MHz", "--turns", "13", "--at", "5MHz")
+    core = result["result"]
+    omega_l = 2 * math.pi * 1e6 * 10e-6
+    copper = run_json(*RING, "--al", f"{10e-6 / 13**2 * 1e9:.12g}nH", "--turns", "13", "--at", "1MHz")["result"]
+    tangent_read = 1 / 90 - copper["ac_resistance_ohm"] / omega_l  # D = 1 on a ring
+    assert core["core_loss_tangent"] == pytest.approx(tangent_read, rel=1e-6)
+
+
+def test_a_q_reading_above_the_copper_alone_is_refused_with_a_warning():
+    """A Q above what the copper alone allows leaves no core loss to find: the answer says so and leaves it out."""
+    data = run_json(*RING, "--measured", "10uH@13", "--measured-q", "90000@1MHz", "--turns", "13", "--at", "5MHz")
+    assert "core_q" not in data["result"]
+    assert any("too small to tell" in text for text in data["warnings"])
+
+
+@pytest.mark.parametrize(("extra", "why"), [
+    (["--measured-q", "90@1MHz"], "--measured"),
+    (["--measured", "10uH@13", "--measured-q", "90@1MHz", "--loss-factor", "4e-5@1MHz"], "not both"),
+    (["--measured", "10uH@13", "--measured-q", "0@1MHz"], "0.5"),
+    (["--measured", "10uH@13", "--measured-q", "90"], "Q@frequency"),
+])
+def test_bad_q_reading_is_one_line(extra, why):
+    outcome = run(*RING, "--mu", "125", "--turns", "13", "--at", "5MHz", *extra) if "--measured" not in extra \
+        else run(*RING, "--turns", "13", "--at", "5MHz", *extra)
+    assert outcome.exit_code == 2, outcome.stdout
+    lines = outcome.stderr.strip().splitlines()
+    assert len(lines) == 1 and "--measured-q" in lines[0] and why in lines[0]

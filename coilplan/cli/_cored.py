@@ -3,13 +3,14 @@
 from __future__ import annotations
 
 import functools
+import math
 from dataclasses import dataclass
 
 import click
 
 from coilplan.cli._types import CountType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
-from coilplan.quantities import format_quantity, parse_loss_factor, parse_measurement
+from coilplan.quantities import format_quantity, parse_loss_factor, parse_measurement, parse_q_reading
 
 __all__ = ["CoreChoice", "core_at_frequency", "core_options", "drive_arguments", "resolve_core"]
 
@@ -44,6 +45,20 @@ class LossFactorType(click.ParamType):
             self.fail(f"expected {error.expected}; got {value!r}", param, ctx)
 
 
+class QReadingType(click.ParamType):
+    """``Q@f``: a Q read on the meter at its test frequency."""
+
+    name = "Q@f"
+
+    def convert(self, value, param, ctx):
+        if isinstance(value, tuple):
+            return value
+        try:
+            return parse_q_reading(value)
+        except InvalidInputError as error:
+            self.fail(f"expected {error.expected}; got {value!r}", param, ctx)
+
+
 def core_options(function):
     """The options every cored command takes: turns/target, wire, core material, drive."""
     options = [
@@ -61,6 +76,9 @@ def core_options(function):
         click.option("--loss-factor", type=LossFactorType(),
                      help="The core material's relative loss factor tanδ/µi at a frequency, e.g. 40e-6@1MHz "
                           "(a data sheet's figure): gives the core's loss at --at."),
+        click.option("--measured-q", type=QReadingType(),
+                     help="The Q the meter showed on the winding of the last --measured reading, with its test "
+                          "frequency, e.g. 85@100kHz: gives the core's loss."),
         click.option("--bsat", type=QuantityType("T"),
                      help="Saturation flux density, if known (else from --material)."),
         click.option("--current", type=QuantityType("A", allow_zero=True), default="0A",
@@ -130,27 +148,34 @@ def drive_arguments(current, ac_current, ac_voltage, frequency) -> dict:
     return {"dc_current": current, "ac_current": ac_current, "ac_voltage": ac_voltage, "frequency": frequency}
 
 
-def core_at_frequency(form, core: CoreChoice, *, mu: float | None, loss_factor, frequency, reference_frequency):
+def core_at_frequency(form, core: CoreChoice, *, mu: float | None, loss_factor, frequency, reference_frequency,
+                      measured_q=None, readings=None, temperature_C: float = 20.0):
     """``form`` with its core's µ' and loss at the operating ``frequency``, when the core's material is known.
 
-    The material is known from --material (its class's dispersion) or --loss-factor; the form
-    is calibrated at ``reference_frequency`` (the meter's, for readings; else 0, the class's
-    low-frequency µi). Without either, or without --at, the form comes back as it is.
+    The material is known from --material (its class's dispersion), --loss-factor, or a Q the
+    meter read on the test winding (--measured-q, which gives the loss factor at the meter's
+    frequency: :func:`coilplan.core_frequency.loss_factor_from_q`). The form is calibrated at
+    ``reference_frequency`` (the meter's, for readings; else 0, the class's low-frequency µi).
+    Without any of them, or without --at, the form comes back as it is.
     """
-    if frequency is None or mu is None or (core.material_name is None and loss_factor is None):
+    if measured_q is not None:
+        if loss_factor is not None:
+            raise InvalidInputError("--measured-q", "either --measured-q or --loss-factor, not both", None)
+        if not readings:
+            raise InvalidInputError("--measured-q", "a --measured L@N reading too: the Q belongs to that winding",
+                                    None)
+    if frequency is None or mu is None or mu <= 1.0:
+        return form
+    if core.material_name is None and loss_factor is None and measured_q is None:
         return form
     import warnings
 
-    from coilplan.core_frequency import CoreSpectrum, at_frequency
-    from coilplan.errors import OutsideValidityWarning
+    from coilplan.core_frequency import CoreSpectrum, at_frequency, loss_factor_from_q
+    from coilplan.errors import MeasurementWarning, OutsideValidityWarning
     from coilplan.materials import material as find_material
     from coilplan.materials import material_dispersion
 
     dispersion = material_dispersion(core.material_name) if core.material_name is not None else None
-    if dispersion is None and loss_factor is None:
-        return form
-    if mu <= 1.0:
-        return form
     if core.material_name is not None:
         usual = find_material(core.material_name).frequency_range
         high = usual[1] if usual is not None else None
@@ -159,7 +184,33 @@ def core_at_frequency(form, core: CoreChoice, *, mu: float | None, loss_factor, 
                           f"(up to {format_quantity(high, 'Hz')}): its permeability and loss there are far from "
                           f"typical, and the core's figures are only an indication", OutsideValidityWarning,
                           stacklevel=2)
+    reference = reference_frequency or 0.0
+    if measured_q is not None:
+        q_value, q_frequency = measured_q
+        turns = int(readings[-1][1])
+        probe = at_frequency(form, CoreSpectrum(mu=mu, reference_frequency=reference, dispersion=dispersion,
+                                                loss_factor=1e-6, loss_factor_frequency=q_frequency), q_frequency)
+        if probe is form:
+            return form
+        copper = float(form.ac_resistance(turns, q_frequency, temperature_C))
+        found = loss_factor_from_q(q_value, q_frequency, float(probe.inductance(turns)), copper, probe.dilution,
+                                   probe.spectrum.mu_low_frequency)
+        if found is None:
+            copper_q = 2 * math.pi * q_frequency * float(probe.inductance(turns)) / copper
+            warnings.warn(f"the Q reading {q_value:g} at {format_quantity(q_frequency, 'Hz')} is at or above the "
+                          f"copper's alone ({copper_q:.0f} by the model): the core's loss is too small to tell from "
+                          f"it, and is left out", MeasurementWarning, stacklevel=2)
+            if dispersion is None:
+                return form
+            loss_factor = None
+        else:
+            loss_factor = (found, q_frequency)
     value, at = loss_factor if loss_factor is not None else (None, None)
-    spectrum = CoreSpectrum(mu=mu, reference_frequency=reference_frequency or 0.0, dispersion=dispersion,
-                            loss_factor=value, loss_factor_frequency=at)
+    if dispersion is None and value is None:
+        return form
+    source = "given"
+    if measured_q is not None and value is not None:
+        source = f"from the Q reading {measured_q[0]:g}"
+    spectrum = CoreSpectrum(mu=mu, reference_frequency=reference, dispersion=dispersion,
+                            loss_factor=value, loss_factor_frequency=at, loss_factor_source=source)
     return at_frequency(form, spectrum, frequency)

@@ -42,7 +42,8 @@ __all__ = ["gapped"]
 @plot_option
 @json_option
 def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns, target, wire_text, grade,
-           overall, mu, material, al, measured, loss_factor, bsat, current, ac_current, ac_voltage, frequency,
+           overall, mu, material, al, measured, loss_factor, measured_q, bsat, current, ac_current, ac_voltage,
+           frequency,
            temperature, lead, meter_freq, tolerance, self_capacitance, turns_uncertainty,
            target_frequency, tuning_capacitance,
            plot_path,
@@ -69,7 +70,8 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
 
     def at_operating_frequency(form):
         return core_at_frequency(form, core, mu=core.mu_r, loss_factor=loss_factor, frequency=frequency,
-                                 reference_frequency=meter_freq if measured else None)
+                                 reference_frequency=meter_freq if measured else None,
+                                 measured_q=measured_q, readings=measured, temperature_C=temperature)
 
     with captured_warnings() as warnings_:
         template = GappedCore(ae=ae, le=le, wire=wire, gap=0.0 if known_al is None else None, mu_r=core.mu_r,

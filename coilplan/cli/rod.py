@@ -45,7 +45,8 @@ _UNCALIBRATED = ("the rod model is uncalibrated: expect tens of percent from a r
 @plot_option
 @json_option
 def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_length, turns, target, wire_text,
-        grade, overall, mu, material, al, measured, loss_factor, bsat, current, ac_current, ac_voltage, frequency,
+        grade, overall, mu, material, al, measured, loss_factor, measured_q, bsat, current, ac_current, ac_voltage,
+        frequency,
         temperature, lead, meter_freq, tolerance, self_capacitance, turns_uncertainty,
         target_frequency, tuning_capacitance,
         plot_path,
@@ -74,7 +75,8 @@ def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_leng
     with captured_warnings() as warnings_:
         form, readings = calibrate_form(build, measured, conditions, "scale")
         form = core_at_frequency(form, core, mu=form.mu_initial, loss_factor=loss_factor, frequency=frequency,
-                                 reference_frequency=meter_freq if measured else None)
+                                 reference_frequency=meter_freq if measured else None,
+                                 measured_q=measured_q, readings=measured, temperature_C=temperature)
         if readings is None:
             warnings.warn(_UNCALIBRATED, OutsideValidityWarning, stacklevel=1)
         result = rod_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings, **drive)

@@ -38,7 +38,8 @@ __all__ = ["toroid"]
 @plot_option
 @json_option
 def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grade, overall, mu, material, al, measured,
-           loss_factor, bsat, current, ac_current, ac_voltage, frequency, temperature, lead, meter_freq, tolerance,
+           loss_factor, measured_q, bsat, current, ac_current, ac_voltage, frequency, temperature, lead, meter_freq,
+           tolerance,
            self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, plot_path, as_json):
     """Ring core (toroid) of rectangular section: AL by IEC 60205, turns, fit and saturation.
 
@@ -64,7 +65,8 @@ def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grad
     with captured_warnings() as warnings_:
         form, readings = calibrate_form(build, measured, conditions, "al")
         form = core_at_frequency(form, core, mu=form.permeability(), loss_factor=loss_factor, frequency=frequency,
-                                 reference_frequency=meter_freq if measured else None)
+                                 reference_frequency=meter_freq if measured else None,
+                                 measured_q=measured_q, readings=measured, temperature_C=temperature)
         result = toroid_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings,
                                **drive)
         if core.material_name is None and result["mu_r_implied"]:

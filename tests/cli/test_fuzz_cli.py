@@ -24,7 +24,7 @@ def value(draw):
         return draw(st.sampled_from(NUMBERS)) + draw(st.sampled_from(UNITS))
     return draw(st.one_of(st.text(max_size=8), st.sampled_from(["24awg", "0.5mm", "10uH@20", "100pF@1MHz",
                                                                   "530kHz:1700kHz", "40x0.1mm", "nizn-125",
-                                                                  "40e-6@1MHz", "30ppm@100kHz"])))
+                                                                  "40e-6@1MHz", "30ppm@100kHz", "85@100kHz"])))
 
 
 COMMANDS = {
@@ -33,11 +33,11 @@ COMMANDS = {
                  "--capacitance", "--self-capacitance", "--meter-freq", "--former-permittivity"],
     "toroid": ["--od", "--id", "--height", "--wire", "--turns", "--target", "--mu", "--material", "--al",
                "--measured", "--current", "--ac-current", "--ac-voltage", "--at", "--bsat", "--chamfer",
-               "--loss-factor"],
+               "--loss-factor", "--measured-q", "--meter-freq"],
     "gapped": ["--ae", "--le", "--gap", "--wire", "--turns", "--target", "--mu", "--material", "--current",
-               "--window-width", "--window-depth", "--max-flux", "--measured", "--at", "--loss-factor"],
+               "--window-width", "--window-depth", "--max-flux", "--measured", "--at", "--loss-factor", "--measured-q"],
     "rod": ["--rod-length", "--rod-diameter", "--wire", "--turns", "--target", "--mu", "--material", "--position",
-            "--coil-length", "--former", "--measured", "--at", "--loss-factor"],
+            "--coil-length", "--former", "--measured", "--at", "--loss-factor", "--measured-q"],
     "multilayer": ["--former", "--width", "--wire", "--turns", "--target", "--packing", "--max-depth", "--at"],
     "spiral": ["--inner", "--wire", "--spacing", "--outer", "--turns", "--target"],
     "rewind": ["--measured", "--target", "--at", "--self-capacitance", "--tolerance", "--turn-length"],
