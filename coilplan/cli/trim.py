@@ -11,6 +11,8 @@ from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import MeasurementType
 from coilplan.cli._measured import conditions_from
 from coilplan.cli._types import PercentType, QuantityType
+from coilplan.errors import InvalidInputError
+from coilplan.files import WriteInterrupted
 from coilplan.quantities import format_quantity
 from coilplan.report.text import aligned_rows, bullet_lines
 from coilplan.report.turns_rows import henry, rewind_rows
@@ -45,16 +47,30 @@ def _plot_path(ctx, param, value):
     return value
 
 
+def _same_file(one: Path, other: Path) -> bool:
+    try:
+        return one.resolve() == other.resolve() or (one.exists() and other.exists() and one.samefile(other))
+    except (OSError, RuntimeError):  # a symlink loop: not the same file as far as we can tell
+        return False
+
+
+def _check_plot_beside(plot_path, file) -> None:
+    """The picture must not land on the log itself: that would replace the readings with a drawing."""
+    if plot_path is not None and _same_file(Path(plot_path), Path(file)):
+        raise InvalidInputError("--plot", f"a file other than the trim log {file} (the picture would replace the "
+                                "readings)", str(plot_path))
+
+
 plot_option = click.option("--plot", "plot_path", type=LOG_FILE, callback=_plot_path,
                            help="Also draw L against N to this file (.png, .svg or .pdf).")
 
 
 @contextlib.contextmanager
 def _write_errors():
-    """A file that cannot be written: one line and exit status 1 (the old file is kept)."""
+    """A file that cannot be written, or a write cut short by Ctrl-C: one line, exit status 1, the old file kept."""
     try:
         yield
-    except LogWriteError as error:
+    except (LogWriteError, WriteInterrupted) as error:
         raise click.ClickException(str(error)) from None
 
 
@@ -91,6 +107,7 @@ def trim(ctx: click.Context) -> None:
 def start(file, target, frequency, meter_freq, tolerance, self_capacitance, offset, turn_length, wire_text, name,
           measured, force, plot_path, as_json):
     """Start the log FILE for one coil: the target and how the readings are taken."""
+    _check_plot_beside(plot_path, file)
     conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency, self_capacitance=self_capacitance,
                     turns_uncertainty=0.0)
     if wire_text is not None:
@@ -124,6 +141,7 @@ def start(file, target, frequency, meter_freq, tolerance, self_capacitance, offs
 @json_option
 def add(file, measured, note, plot_path, as_json):
     """Add a reading to the log FILE, refit and print the next step."""
+    _check_plot_beside(plot_path, file)
     value, turns = measured
     log = add_reading(load_log(file), value, turns, note=note)
     inputs = {"file": str(file), "measured": {"inductance_H": value, "turns": turns}, "note": note}
@@ -142,6 +160,7 @@ def add(file, measured, note, plot_path, as_json):
 @json_option
 def show(file, plot_path, as_json):
     """Print the state of the log FILE: the readings, the fit and the next step (FILE is not changed)."""
+    _check_plot_beside(plot_path, file)
     log = load_log(file)
     if plot_path is not None and not log.readings:
         raise click.BadParameter("needs at least one reading in the log to draw", param_hint="--plot")
@@ -174,7 +193,7 @@ def _write_plot(plot_path, picture: bytes | None, file, saved: bool = True) -> N
         return
     try:
         write_atomically(plot_path, picture)
-    except LogWriteError as error:
+    except (LogWriteError, WriteInterrupted) as error:
         kept = f"; the log {file} was saved" if saved else ""
         raise click.ClickException(f"--plot {error}{kept}") from None
 

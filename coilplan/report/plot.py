@@ -9,6 +9,7 @@ hash salt is fixed and the date metadata left out.
 from __future__ import annotations
 
 import io
+import math
 from collections.abc import Sequence
 from pathlib import Path
 
@@ -40,6 +41,12 @@ def plot_format(path, option: str = "--plot") -> str:
     return PLOT_FORMATS[ending]
 
 
+def _finite(values) -> np.ndarray:
+    """The values with anything not finite (the peak at resonance) as NaN, which matplotlib leaves out."""
+    values = np.asarray(values, dtype=float)
+    return np.where(np.isfinite(values), values, np.nan)
+
+
 def _matplotlib():
     try:
         from matplotlib import rc_context
@@ -61,24 +68,34 @@ def impedance_plot(*, sweep: dict, operating_frequency: float | None, fmt: str, 
     operating_frequency : float, optional
         Hz; marked when given.
     fmt : {"png", "svg", "pdf"}
+
+    Raises
+    ------
+    InvalidInputError
+        The sweep has no finite self-resonance to draw around (a winding with no
+        self-capacitance estimate), or matplotlib is not installed.
     """
+    srf = float(sweep["srf_Hz"]) if sweep.get("srf_Hz") is not None else math.nan
+    frequency = np.asarray(sweep["frequency_Hz"], dtype=float) / 1e6
+    if not (math.isfinite(srf) and srf > 0 and frequency.size and np.all(np.isfinite(frequency))):
+        raise InvalidInputError("--plot", "a coil whose self-resonance is known, to draw |Z| and Q around it "
+                                "(no self-capacitance is estimated for this winding)", None)
     rc_context, FigureCanvasAgg, Figure = _matplotlib()
     if fmt not in _NO_DATES:
         raise InvalidInputError("--plot", "a format png, svg or pdf", fmt)
-    frequency = np.asarray(sweep["frequency_Hz"]) / 1e6
     figure = Figure(figsize=(6.4, 5.6), layout="constrained")
     FigureCanvasAgg(figure)
     top, bottom = figure.subplots(2, 1, sharex=True)
-    top.loglog(frequency, sweep["impedance_ohm"], color="tab:blue")
+    top.loglog(frequency, _finite(sweep["impedance_ohm"]), color="tab:blue")
     top.set_ylabel("|Z| (Ω)")
-    quality = np.where(np.asarray(sweep["q"]) > 0, sweep["q"], np.nan)
+    quality = _finite(np.where(np.asarray(sweep["q"], dtype=float) > 0, sweep["q"], np.nan))
     bottom.semilogx(frequency, quality, color="tab:purple")
     bottom.set_ylabel("Q (|X|/R at the terminals)")
     bottom.set_xlabel("frequency (MHz)")
     for axes in (top, bottom):
-        axes.axvline(sweep["srf_Hz"] / 1e6, color="tab:red", linestyle="--", linewidth=1,
-                     label=f"self-resonance {sweep['srf_Hz'] / 1e6:.4g} MHz")
-        if operating_frequency is not None:
+        axes.axvline(srf / 1e6, color="tab:red", linestyle="--", linewidth=1,
+                     label=f"self-resonance {srf / 1e6:.4g} MHz")
+        if operating_frequency is not None and math.isfinite(operating_frequency) and operating_frequency > 0:
             axes.axvline(operating_frequency / 1e6, color="tab:green", linewidth=1.2,
                          label=f"operating {operating_frequency / 1e6:.4g} MHz")
         axes.grid(True, which="both", alpha=0.3)
