@@ -24,12 +24,33 @@ from coilplan.physics.frequency import apparent_inductance_and_resistance, q_fac
 from coilplan.quantities import format_quantity
 from coilplan.rewind import SRF_FRACTION
 
-__all__ = ["ApparentForm", "frequency_fields", "has_frequency_model", "impedance_sweep"]
+__all__ = ["ApparentForm", "GivenCapacitance", "frequency_fields", "has_frequency_model", "impedance_sweep"]
 
 
 def has_frequency_model(form) -> bool:
     """True when the form estimates its self-capacitance (and so its self-resonance)."""
     return hasattr(form, "self_capacitance")
+
+
+@dataclass(frozen=True)
+class GivenCapacitance:
+    """``form`` with the self-capacitance the user measured, taken the same at every turn count.
+
+    A measured value (from ``coilplan tank --resonance``, say) replaces the form's estimate
+    everywhere: in the target at the operating frequency, the self-resonance and the plot.
+    Near the turns it was measured at it is right; far from them the coil's own C changes,
+    and the answer says the value was given.
+    """
+
+    form: object
+    capacitance: float
+    capacitance_given = True  # what frequency_fields reports as the source
+
+    def self_capacitance(self, turns):
+        return np.full(np.shape(turns), self.capacitance)[()]
+
+    def __getattr__(self, name):
+        return getattr(self.form, name)
 
 
 @dataclass(frozen=True)
@@ -105,7 +126,7 @@ def frequency_fields(form, turns: int, frequency: float | None, temperature_C: f
     if not has_frequency_model(form):
         return {}
     inductance = float(form.inductance(turns))
-    source = "estimated" if capacitance is None else "given"
+    source = "given" if capacitance is not None or getattr(form, "capacitance_given", False) else "estimated"
     capacitance = float(form.self_capacitance(turns)) if capacitance is None else float(capacitance)
     fields = {"self_capacitance_F": capacitance, "self_capacitance_source": source,
               "srf_Hz": float(self_resonant_frequency(inductance, capacitance))}

@@ -144,12 +144,36 @@ def apparent_inductance(inductance, frequency, capacitance):
         return np.where(denominator > 0, inductance / denominator, np.nan)
 
 
+#: A reading taken above this fraction of the coil's self-resonance is refused: there the corrected
+#: L ≈ 1/(ω²C) whatever the meter shows, so the reading measures the self-capacitance, not the coil
+#: (common practice, no source: a meter reads a coil well below its SRF).
+UNUSABLE_SRF_FRACTION = 0.9
+
+
 def low_frequency_readings(readings, conditions: Conditions) -> list[tuple[float, int]]:
-    """Readings with the self-capacitance effect at the meter frequency removed."""
+    """Readings with the self-capacitance effect at the meter frequency removed.
+
+    Raises
+    ------
+    InvalidInputError
+        A reading whose corrected L puts the meter frequency above
+        :data:`UNUSABLE_SRF_FRACTION` of the coil's self-resonance (``--meter-freq``).
+    """
     if conditions.self_capacitance is None or conditions.meter_frequency is None:
         return [(float(value), int(turns)) for value, turns in readings]
-    return [(float(low_frequency_inductance(value, conditions.meter_frequency, conditions.self_capacitance)),
-             int(turns)) for value, turns in readings]
+    corrected = []
+    for value, turns in readings:
+        low = float(low_frequency_inductance(value, conditions.meter_frequency, conditions.self_capacitance))
+        fraction = conditions.meter_frequency / float(self_resonant_frequency(low, conditions.self_capacitance))
+        if fraction > UNUSABLE_SRF_FRACTION:
+            raise InvalidInputError(
+                "--meter-freq", "a test frequency well below the coil's self-resonance: "
+                f"{format_quantity(value, 'H')} at {turns} turns read at "
+                f"{format_quantity(conditions.meter_frequency, 'Hz')} puts it at "
+                f"{fraction:.1%} of its self-resonance with {format_quantity(conditions.self_capacitance, 'F')}, "
+                f"where a reading measures the capacitance, not the coil; measure at a lower frequency", None)
+        corrected.append((low, int(turns)))
+    return corrected
 
 
 def check_readings(readings) -> None:
@@ -238,7 +262,17 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
     warnings_: list[str] = []
     turns_now = int(list(readings)[-1][1])
     low_target = _target_at_low_frequency(target, conditions)
-    solution = solve_turns(form, low_target)
+    try:
+        solution = solve_turns(form, low_target)
+    except InfeasibleError as error:
+        if low_target == target:
+            raise
+        at = format_quantity(conditions.operating_frequency, "Hz")
+        capacitance = format_quantity(conditions.self_capacitance, "F")
+        raise InfeasibleError(f"{format_quantity(target, 'H')} at {at} with {capacitance} of self-capacitance is "
+                              f"{format_quantity(low_target, 'H')} at low frequency: {error.message}",
+                              option=error.option) from None
+    _check_apparent(solution, target, conditions)
     uncertainty = _uncertainty(form, fit, conditions, readings)
     ends = []
     for side in (1.0 - uncertainty, 1.0 + uncertainty):
@@ -292,6 +326,32 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
     return fields, warnings_
 
 
+def _check_apparent(solution, target: float, conditions: Conditions) -> None:
+    """Refuse a whole-turn answer whose apparent inductance at the operating frequency misses by 2× or more.
+
+    Close to self-resonance L/(1 − ω²LC) runs away: the exact turns exist, but no whole
+    number of turns shows anything near the target there.
+    """
+    if conditions.self_capacitance is None or conditions.operating_frequency is None:
+        return
+    shown = _apparent(solution.inductance, conditions)
+    if math.isfinite(shown) and 0.5 < shown / target < 2.0:
+        return
+    sides = []
+    for count, value in ((solution.turns_below, solution.inductance_below),
+                         (solution.turns_above, solution.inductance_above)):
+        seen = _apparent(value, conditions)
+        plural = int(count) != 1
+        if math.isfinite(seen):
+            sides.append(f"{_turns(int(count))} {'show' if plural else 'shows'} {format_quantity(seen, 'H')}")
+        else:
+            sides.append(f"{_turns(int(count))} {'are' if plural else 'is'} above self-resonance")
+    raise InfeasibleError(f"no whole number of turns shows {format_quantity(target, 'H')} at "
+                          f"{format_quantity(conditions.operating_frequency, 'Hz')}: it lies in the self-resonance "
+                          f"rise, where {' and '.join(dict.fromkeys(sides))}; use a lower frequency or a coil "
+                          f"with less self-capacitance", option="--target")
+
+
 def _apparent(inductance: float, conditions: Conditions) -> float:
     if conditions.self_capacitance is None or conditions.operating_frequency is None:
         return float(inductance)
@@ -303,8 +363,9 @@ def _srf_warnings(readings, turns: int, form, conditions: Conditions) -> list[st
     if capacitance is None:
         return []
     texts = []
+    low = low_frequency_readings(readings, conditions)
     for label, frequency, inductance in (
-            ("meter", conditions.meter_frequency, max(value for value, _ in readings)),
+            ("meter", conditions.meter_frequency, max(value for value, _ in low)),
             ("operating", conditions.operating_frequency, float(form.inductance(turns)))):
         if frequency is None:
             continue

@@ -7,7 +7,7 @@ import functools
 
 import click
 
-from coilplan.apparent import has_frequency_model
+from coilplan.apparent import GivenCapacitance, has_frequency_model
 from coilplan.calibrate import ScaledForm
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import InvalidInputError
@@ -41,9 +41,7 @@ def measurement_options(function):
 
 
 def conditions_from(*, tolerance, meter_freq, at, self_capacitance, turns_uncertainty) -> Conditions:
-    """The measurement conditions, checked against each other."""
-    if self_capacitance is not None and meter_freq is None and at is None:
-        raise InvalidInputError("--self-capacitance", "--meter-freq and/or --at to go with it", None)
+    """The measurement conditions."""
     return Conditions(tolerance=DEFAULT_TOLERANCE if tolerance is None else tolerance,
                       tolerance_assumed=tolerance is None, meter_frequency=meter_freq, operating_frequency=at,
                       self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
@@ -52,12 +50,20 @@ def conditions_from(*, tolerance, meter_freq, at, self_capacitance, turns_uncert
 def calibrate_form(build, readings, conditions: Conditions, kind: str):
     """(calibrated form, Measured or None).
 
+    A self-capacitance the user gave (``--self-capacitance``) replaces the form's estimate in
+    the form returned (:class:`coilplan.apparent.GivenCapacitance`), with or without readings.
+
     ``build(al)`` makes the form; ``al`` is None for the uncalibrated model. ``kind``
     "al": a closed core whose AL comes from the readings; "scale": a model (air coil,
     rod) whose level is scaled to them.
     """
+    given = conditions.self_capacitance if not conditions.self_capacitance_estimated else None
+
+    def with_given(form):
+        return form if given is None else GivenCapacitance(form, given)
+
     if not readings:
-        return build(None), None
+        return with_given(build(None)), None
     readings = list(readings)
     frequencies_given = conditions.meter_frequency is not None or conditions.operating_frequency is not None
     if conditions.self_capacitance is None and frequencies_given:
@@ -75,7 +81,7 @@ def calibrate_form(build, readings, conditions: Conditions, kind: str):
         form = build(None)
         fit = model_fit(form, low)
         calibrated = ScaledForm(form, fit.value)
-    return calibrated, Measured(readings, fit, conditions)
+    return with_given(calibrated), Measured(readings, fit, conditions)
 
 
 def tuning_options(function):

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import click
 
+from coilplan.apparent import GivenCapacitance
 from coilplan.cautions import tuned_circuit_cautions
 from coilplan.choke import design_choke
 from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
@@ -69,6 +70,8 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
     mode = "given"
 
     def at_operating_frequency(form):
+        if self_capacitance is not None and not getattr(form, "capacitance_given", False):
+            form = GivenCapacitance(form, self_capacitance)
         return core_at_frequency(form, core, mu=core.mu_r, loss_factor=loss_factor, frequency=frequency,
                                  reference_frequency=meter_freq if measured else None,
                                  measured_q=measured_q, readings=measured, temperature_C=temperature)

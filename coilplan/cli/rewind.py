@@ -10,7 +10,7 @@ from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import MeasurementType
 from coilplan.cli._measured import conditions_from, measurement_options
 from coilplan.cli._types import QuantityType
-from coilplan.errors import MeasurementWarning
+from coilplan.errors import InvalidInputError, MeasurementWarning
 from coilplan.report.rewind_text import rewind_lines
 from coilplan.rewind import closed_core_answer
 from coilplan.wire import parse_wire
@@ -35,6 +35,9 @@ def rewind(measured, target, offset, turn_length, wire_text, frequency, meter_fr
     For a coil whose geometry matters (an air coil, a rod) give the readings to its own
     command (solenoid, rod) with --measured: there the winding's length is accounted for.
     """
+    if self_capacitance is not None and meter_freq is None and frequency is None:
+        # the N² law has no self-resonance to report: the value only corrects readings and target
+        raise InvalidInputError("--self-capacitance", "--meter-freq and/or --at to go with it", None)
     conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
                                  self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
     wire = parse_wire(wire_text, option="--wire") if wire_text else None

@@ -108,6 +108,9 @@ def start(file, target, frequency, meter_freq, tolerance, self_capacitance, offs
           measured, force, plot_path, as_json):
     """Start the log FILE for one coil: the target and how the readings are taken."""
     _check_plot_beside(plot_path, file)
+    if self_capacitance is not None and meter_freq is None and frequency is None:
+        # a closed core's log has no self-resonance to report: the value only corrects readings and target
+        raise InvalidInputError("--self-capacitance", "--meter-freq and/or --at to go with it", None)
     conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency, self_capacitance=self_capacitance,
                     turns_uncertainty=0.0)
     if wire_text is not None:
