@@ -79,7 +79,7 @@ def impedance_plot(*, sweep: dict, operating_frequency: float | None, fmt: str, 
     frequency = np.asarray(sweep["frequency_Hz"], dtype=float) / 1e6
     if not (math.isfinite(srf) and srf > 0 and frequency.size and np.all(np.isfinite(frequency))):
         raise InvalidInputError("--plot", "a coil whose self-resonance is known, to draw |Z| and Q around it "
-                                "(no self-capacitance is estimated for this winding)", None)
+                                "(no self-capacitance is estimated for this winding: give --self-capacitance)", None)
     rc_context, FigureCanvasAgg, Figure = _matplotlib()
     if fmt not in _NO_DATES:
         raise InvalidInputError("--plot", "a format png, svg or pdf", fmt)
