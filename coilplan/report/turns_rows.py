@@ -127,7 +127,8 @@ def _core_rows(result: dict, at: str) -> list[tuple[str, ...]]:
     where = f"its value at {format_quantity(reference, 'Hz', 4)}" if reference else "its low-frequency value"
     return [
         ("core permeability", f"{result['core_permeability']:.4g}",
-         f"at {at}: {result['core_inductance_ratio']:.2%} of {where}, and the turns allow for it"),
+         f"at {at}: {result['core_inductance_ratio']:.2%} of {where}, and the turns allow for it"
+         if abs(result["core_inductance_ratio"] - 1.0) >= 5e-4 else f"at {at}: unchanged from {where}"),
         ("core loss", format_quantity(result["core_loss_resistance_ohm"], "ohm", 3),
          f"in series: loss tangent {result['core_loss_tangent']:.3g}"
          + (f" × dilution {result['core_dilution']:.3g}" if result["core_dilution"] < 0.995 else "")
