@@ -413,3 +413,22 @@ def test_plot_onto_the_log_itself_is_refused(tmp_path, command):
     assert result.exit_code == 2, result.stdout + result.stderr
     assert result.stderr.count("\n") == 1 and "--plot: expected a file other than the trim log" in result.stderr
     assert snapshot(tmp_path) == before
+
+
+def test_ctrl_c_while_a_form_plot_is_written_names_the_file(tmp_path, monkeypatch):
+    """An interrupt during --plot on a form command says which file and that nothing was written there."""
+    from click.testing import CliRunner
+
+    from coilplan.cli import main
+
+    def interrupted(*args, **kwargs):
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr(os, "replace", interrupted)
+    picture = tmp_path / "z.png"
+    outcome = CliRunner().invoke(main, ["solenoid", "--former", "25mm", "--wire", "0.5mm", "--turns", "10",
+                                        "--plot", str(picture)])
+    lines = [line for line in outcome.stderr.splitlines() if line.strip()]
+    assert outcome.exit_code == 1 and len(lines) == 1
+    assert str(picture) in lines[0] and "interrupted" in lines[0] and not picture.exists()
+    assert not list(tmp_path.iterdir())  # no temporary file left behind

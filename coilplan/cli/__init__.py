@@ -73,8 +73,9 @@ class _CoilplanGroup(click.Group):
             code = _fail(f"cannot be done: {error}", 1)
         except click.ClickException as error:
             code = _fail(error.format_message(), error.exit_code)
-        except click.Abort:
-            code = _fail("aborted", 1)
+        except click.Abort as error:
+            cause = error.__cause__ or error.__context__
+            code = _fail(str(cause) if type(cause).__name__ == "WriteInterrupted" else "aborted", 1)
         except BrokenPipeError:  # output piped into `head`: not an error of ours
             code = 0
         except Exception as error:  # a defect of ours: still one line, never a traceback
