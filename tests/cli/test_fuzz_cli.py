@@ -65,7 +65,7 @@ BASES = {
 }
 
 
-@settings(max_examples=int(os.environ.get("COILPLAN_FUZZ_EXAMPLES", "150")), deadline=None)
+@settings(max_examples=int(os.environ.get("COILPLAN_FUZZ_EXAMPLES", "600")), deadline=None)
 @given(data=st.data())
 def test_random_options_never_crash(data):
     """Any mix of options and values ends in exit status 0, 1 or 2 with at most one error line, no traceback."""
@@ -80,3 +80,6 @@ def test_random_options_never_crash(data):
     assert "internal error" not in result.output, (arguments, result.output)
     if result.exit_code:
         assert result.stderr.count("\n") == 1, (arguments, result.stderr)
+    if result.exit_code == 2:  # a usage error names the option (or the argument) it is about
+        assert any(name in result.stderr for name in (*options, *COMMANDS[command], "MATERIAL", "GAUGE")), (
+            arguments, result.stderr)
