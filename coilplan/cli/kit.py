@@ -12,8 +12,10 @@ from coilplan.errors import InfeasibleError, InvalidInputError
 
 __all__ = ["kit"]
 
-#: Plans with more (coil type × stock item) pairs than this show a progress bar (about a second of work).
+#: Plans with more (coil type × stock item) pairs than this show a progress bar (about a second of work);
+#: a pair with a ferrite rod or a bobbin counts as several (their models are costly: a solve per turn count).
 PROGRESS_PAIRS = 2000
+PAIR_WEIGHT = {"rod": 60, "bobbin": 10}
 
 
 def _outputs(out: Path, plan_file, fields, result) -> dict[str, bytes]:
@@ -47,11 +49,13 @@ def _write(files: dict[str, bytes], force: bool) -> None:
 @click.option("--force", is_flag=True, help="Replace files of an earlier plan already in --out.")
 @json_option
 def kit(plan_file, out, force, as_json):
-    """Plan many coils at once from the formers, ring cores and wire reels in PLAN (a TOML file).
+    """Plan many coils at once from the formers, ring cores, ferrite rods, gapped cores, bobbins and
+    wire reels in PLAN (a TOML file).
 
-    Every coil type is tried on every stock item with every reel's wire; stock is then assigned
-    optimally under the counts: fewest coils left out, then least wire, then closest to target,
-    then best Q. What cannot be placed is explained; the exit status is then 1.
+    Every coil type is tried on every stock item with every reel's wire; stock and wire are then
+    shared out optimally under the counts and the reel lengths: fewest coils left out, then least
+    wire, then closest to target, then best Q. What cannot be placed is explained, with the wire
+    short of each gauge; the exit status is then 1.
     """
     from coilplan.kit import load_plan, plan_kit
     from coilplan.kit.outputs import kit_document, result_fields, summary_lines
@@ -59,8 +63,11 @@ def kit(plan_file, out, force, as_json):
     plan = load_plan(plan_file)
     if out is not None and out.exists() and not out.is_dir():
         raise InvalidInputError("--out", "a folder", str(out))
-    stock = len(plan.former) + len(plan.toroid)
-    if len(plan.coil) * stock > PROGRESS_PAIRS and not as_json:
+    from coilplan.kit.plan import STOCK_FORMS
+
+    stock = sum(len(getattr(plan, kind)) for kind in STOCK_FORMS)
+    work = sum(PAIR_WEIGHT.get(kind, 1) * len(getattr(plan, kind)) for kind in STOCK_FORMS)
+    if len(plan.coil) * work > PROGRESS_PAIRS and not as_json:
         with click.progressbar(length=stock, label="trying every coil on every stock item",
                                file=sys.stderr) as bar:
             result = plan_kit(plan, progress=bar.update)

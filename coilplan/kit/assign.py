@@ -1,35 +1,28 @@
-r"""The kit planner's work: every coil on every stock item, then the best assignment under the counts.
+r"""The kit planner's work: every coil on every stock item with every reel's wire, then the best share-out.
 
-1. **Evaluate.** Each stock item (a former as a single-layer :class:`~coilplan.forms.Solenoid`, a ring
-   core as a :class:`~coilplan.forms.Toroid`) is built once with each wire on the reels, and
+1. **Evaluate.** Each stock item (:mod:`coilplan.kit.stock`: a former, ring core, ferrite rod, gapped
+   core or bobbin as its coil form) is built once with each wire on the reels, and
    :func:`coilplan.solve.solve_turns` finds the turns of every coil type in one batched call.
    A coil with an operating frequency f is solved for its apparent inductance there,
    :math:`L_{app} = L/(1 - \omega^2 L C)` (the small-R limit that :class:`coilplan.apparent.ApparentForm`
    uses), by a fixed-point on the low-frequency target :math:`L = L_{app}/(1 + \omega^2 L_{app} C(N))`
    (one correction and a second batched solve; the whole numbers round it are then checked at f directly
    and the closest kept).
-   A pair is rejected when the turns do not fit, the coil self-resonates below f, the nearest
-   whole number of turns misses the tolerance, or the core runs at or above
-   :data:`coilplan.saturation.NEAR_SATURATION` of its saturation flux density at the coil's current.
-   Of the wires that work, each pair keeps the one with the lowest cost (below).
+   A winding is rejected when the turns do not fit, the coil self-resonates below f, the nearest
+   whole number of turns misses the tolerance, a cored form (toroid, rod, gapped core) runs at or above
+   :data:`coilplan.saturation.NEAR_SATURATION` of its saturation flux density at the coil's current,
+   or the coil's tap does not fall inside the winding.
+   Every wire that works is kept as a winding option of the pair, with its cost levels.
 
-2. **Assign.** One row per coil unit, one column per stock unit, plus one "not placed" column per row;
-   :func:`scipy.optimize.linear_sum_assignment` minimises the total of a lexicographic weighted cost:
-   first the number of coils left unplaced, then the wire used (to ``wire_resolution_m``, 1 mm
-   unless the plan is too large for that to stay exact in float64), then the closeness to target
-   (:math:`|L - L_{target}|/L_{target}` in steps of 0.1 %), then the Q at the operating frequency
-   (:math:`1/(1+Q)` in steps of 0.001). Each level's weight exceeds the largest total the levels below it
-   can reach over all rows, and every cost is a whole number below 2⁵³, so the order is exact. A plan
-   too large for that drops the Q level first (``q_in_objective`` false), then counts the wire in
-   coarser steps (1 cm, 10 cm ...).
-
-3. **Wire.** The lengths to cut (computed length plus the wire margin) are allocated to the reels of
-   their wire by first-fit decreasing: the longest piece first, each to the first reel (in plan order)
-   that still holds it. What fits on no reel is that wire's shortfall.
+2. **Share out.** :func:`coilplan.kit.optimise.optimise`: the lexicographic optimum (fewest coils
+   left out, then least wire, then closest to target, then best Q) under the stock counts and the
+   lengths on the reels, each piece cut whole from one reel; the solver and the proof of optimality
+   are described there. What the reels leave out is reported with each wire's shortfall.
 """
 
 from __future__ import annotations
 
+import functools
 import math
 import warnings
 from dataclasses import dataclass, field
@@ -38,45 +31,26 @@ from typing import NamedTuple
 import numpy as np
 
 from coilplan.errors import CoilplanWarning, InfeasibleError, InvalidInputError
-from coilplan.forms import Solenoid, Toroid
+from coilplan.kit.optimise import CLOSENESS_STEP, Q_STEPS, Solution, optimise
+from coilplan.kit.stock import StockItem, build_form, plan_wires, stock_items, winding_limit
 from coilplan.physics.frequency import apparent_inductance_and_resistance, q_factor
 from coilplan.quantities import format_length, format_quantity
 from coilplan.saturation import NEAR_SATURATION
 from coilplan.solve import solve_turns
-from coilplan.wire import Wire, parse_wire
 
 __all__ = [
     "Candidate",
     "Evaluation",
     "KitResult",
+    "OPTION_FIELDS",
     "Placement",
     "StockItem",
-    "allocate_wire",
-    "assign_units",
     "build_form",
     "captured",
-    "cost_levels",
     "evaluate_plan",
     "plan_kit",
     "wire_key",
 ]
-
-#: Closeness to target is counted in steps of this fraction (0.1 %).
-CLOSENESS_STEP = 1e-3
-#: Q enters as 1/(1+Q) in steps of 1/Q_STEPS (the last, weakest level: at Q = 70 a step is a Q of about 5).
-Q_STEPS = 1000
-_EXACT = 2.0**53
-
-
-@dataclass(frozen=True)
-class StockItem:
-    """One line of stock: a former or a ring core, how many, and its label for messages."""
-
-    kind: str  # "former" or "toroid"
-    index: int  # 0-based within its table
-    label: str
-    count: int
-    spec: object
 
 
 class Candidate(NamedTuple):
@@ -90,21 +64,34 @@ class Candidate(NamedTuple):
     apparent_inductance: float  # at the operating frequency (= inductance without one), H
     wire_length: float  # to cut, margin included, m
     q: float | None
+    closeness: float = 0.0  # |L_app - target| / target
+    q_cost: float = 0.0  # 1/(1+Q), 0 without an operating frequency
+    tap: int | None = None  # the tap's turn, counted from the start of the winding
+
+
+#: The arrays an evaluation keeps of its winding options (one entry per option, pair by pair).
+OPTION_FIELDS = ("coil", "stock", "wire", "turns", "inductance", "apparent_inductance", "length", "closeness",
+                 "q_cost", "q", "tap")
 
 
 @dataclass
 class Evaluation:
-    """Every coil type against every stock item: feasibility, the cost levels and the reasons."""
+    """Every coil type against every stock item: the winding options, their costs and the reasons.
+
+    The options are kept as arrays (``arrays``, :data:`OPTION_FIELDS`), each pair's options together and
+    cheapest first (wire to 1 mm, then closeness, then Q); :class:`Candidate` records are made from
+    them on demand (``flat``, :meth:`options_of`).
+    """
 
     plan: object
     stock: list[StockItem]
-    wires: list[tuple[str, str, Wire]]  # (text, grade, nominal wire) per distinct reel wire
-    candidates: dict[tuple[int, int], Candidate]  # the cheapest wire of each feasible pair
-    options: dict[tuple[int, int], list[Candidate]]  # every wire that works, cheapest first
-    reasons: dict[tuple[int, int], object]  # text, or a function giving it: read them with reason()
-    wire_length: np.ndarray  # (coil types, stock items), m; inf where infeasible
+    wires: list[tuple[str, str, object]]  # (text, grade, nominal wire) per distinct reel wire
+    reasons: dict[tuple[int, int], object]  # text, or (function, arguments): read them with reason()
+    wire_length: np.ndarray  # (coil types, stock items), m, of the cheapest wire; inf where infeasible
     closeness: np.ndarray
     q_cost: np.ndarray  # 1/(1+Q), 0 without an operating frequency
+    forms: dict[tuple[int, int], object] = field(default_factory=dict)  # (stock, wire) -> the form built
+    arrays: dict[str, np.ndarray] = field(default_factory=dict)
 
     @property
     def feasible(self) -> np.ndarray:
@@ -116,28 +103,62 @@ class Evaluation:
             return ""
         return _text(self.reasons.get((coil, stock), "no winding found"))
 
+    def candidate(self, index: int) -> Candidate:
+        """The option at ``index`` (of the arrays) as a record."""
+        a = self.arrays
+        q = float(a["q"][index])
+        tap = int(a["tap"][index])
+        return Candidate(int(a["coil"][index]), int(a["stock"][index]), int(a["wire"][index]),
+                         int(a["turns"][index]), float(a["inductance"][index]),
+                         float(a["apparent_inductance"][index]), float(a["length"][index]),
+                         None if math.isnan(q) else q, float(a["closeness"][index]), float(a["q_cost"][index]),
+                         None if tap < 0 else tap)
+
+    @functools.cached_property
+    def flat(self) -> list[Candidate]:
+        """Every option as a record, in the arrays' order."""
+        return [self.candidate(index) for index in range(self.arrays["coil"].size)]
+
+    @functools.cached_property
+    def _pairs(self) -> dict[tuple[int, int], tuple[int, int]]:
+        a = self.arrays
+        pair = a["coil"] * max(len(self.stock), 1) + a["stock"]
+        if pair.size == 0:
+            return {}
+        starts = np.flatnonzero(np.r_[True, pair[1:] != pair[:-1]])
+        stops = np.r_[starts[1:], pair.size]
+        return {(int(a["coil"][i]), int(a["stock"][i])): (int(i), int(j)) for i, j in zip(starts, stops, strict=True)}
+
+    def options_of(self, coil: int, stock: int) -> list[Candidate]:
+        """Every wire that works for coil type ``coil`` on stock item ``stock``, cheapest first."""
+        start, stop = self._pairs.get((coil, stock), (0, 0))
+        return [self.candidate(index) for index in range(start, stop)]
+
 
 @dataclass(frozen=True)
 class Placement:
-    """Some units of one coil type on one stock item, with what the winding card needs."""
+    """Some units of one coil type on one stock item with one wire, with what the winding card needs."""
 
     coil: int
     stock: int
     quantity: int
     candidate: Candidate
     form: object
+    reels: tuple[tuple[int, int], ...] = ()  # (reel index in plan order, pieces cut from it)
 
 
 @dataclass
 class KitResult:
-    """The planned kit: the placements, the wire allocation and what could not be done."""
+    """The planned kit: the placements, the wire on each reel and what could not be done."""
 
     evaluation: Evaluation
     placements: list[Placement]
-    unit_assignment: list[int | None]  # per coil unit: the stock unit's column, or None
     objective: tuple[int, int, int, int]  # (unplaced, wire units, closeness steps, Q steps)
     wire_resolution_m: float
     q_in_objective: bool
+    solver: str = "assignment"
+    proven_optimal: bool = True
+    bound: tuple[int, int] | None = None  # a proven lower bound (unplaced, wire units) when not proven optimal
     reels: list[dict] = field(default_factory=list)
     shortfall: dict[str, float] = field(default_factory=dict)
     unplaced: list[str] = field(default_factory=list)
@@ -148,56 +169,13 @@ class KitResult:
 
 
 def _text(reason) -> str:
-    """A reason kept as text or as a function that writes it (formatted only when it is read)."""
-    return reason() if callable(reason) else str(reason)
+    """A reason kept as text or as (function, arguments) that writes it (formatted only when it is read)."""
+    if isinstance(reason, tuple):
+        return reason[0](*reason[1:])
+    return str(reason)
 
 
 # --- evaluation --------------------------------------------------------------------------------------
-
-
-def _stock(plan) -> list[StockItem]:
-    items = []
-    for kind in ("former", "toroid"):
-        for index, spec in enumerate(getattr(plan, kind)):
-            label = f"{kind} {spec.name!r}" if spec.name else f"{kind}[{index + 1}]"
-            items.append(StockItem(kind, index, label, spec.count, spec))
-    return items
-
-
-def _wires(plan) -> list[tuple[str, str, Wire]]:
-    seen: dict[tuple[str, str], Wire] = {}
-    for reel in plan.reel:
-        key = (reel.wire, reel.grade)
-        if key not in seen:
-            seen[key] = parse_wire(reel.wire, grade=reel.grade, option="wire")
-    return [(text, grade, wire) for (text, grade), wire in seen.items()]
-
-
-def build_form(item: StockItem, wire: Wire, settings):
-    """The coil form of ``item`` wound with ``wire`` by hand (pitch = overall diameter / packing).
-
-    Raises
-    ------
-    InvalidInputError
-        The wire does not suit the item (too thick for the hole or the former).
-    """
-    hand = Wire(label=wire.label, series=wire.series, diameter=wire.diameter,
-                overall_diameter=wire.overall_diameter / settings.packing, grade="measured")
-    spec = item.spec
-    if item.kind == "former":
-        return Solenoid(diameter=spec.diameter + wire.overall_diameter, wire=hand, max_length=spec.length,
-                        lead=settings.lead)
-    mu_r, bsat = None, None
-    if spec.material is not None:
-        from coilplan.materials import material
-
-        chosen = material(spec.material)
-        mu_r = chosen.mu_initial
-        limit = chosen.saturation_flux_density(settings.temperature_C)
-        bsat = None if limit is None else float(limit)
-    return Toroid(inner_diameter=spec.id, outer_diameter=spec.od, height=spec.height, wire=hand, al=spec.al,
-                  al_basis="given AL value" if spec.al is not None else f"material {spec.material}",
-                  mu_r=None if spec.al is not None else mu_r, saturation_flux_density=bsat, lead=settings.lead)
 
 
 def _apparent(form, turns, frequency):
@@ -209,12 +187,43 @@ def _apparent(form, turns, frequency):
     return np.where(1.0 - omega2 * low * capacitance > 0, apparent, np.nan), low
 
 
+def _single_turn_too_much(smallest: float, wanted: float) -> str:
+    return (f"a single turn already gives {format_quantity(smallest, 'H')}, above the "
+            f"{format_quantity(wanted, 'H')} wanted")
+
+
+def _beyond_the_form(wanted: float, largest: float, form, top: int) -> str:
+    return (f"needs {format_quantity(wanted, 'H')}, above the {format_quantity(largest, 'H')} of "
+            f"{form.limit_reason(top)}")
+
+
+def _self_resonant(frequency: float, turns: int) -> str:
+    return f"self-resonates below its {format_quantity(frequency, 'Hz')} operating frequency at {turns} turns"
+
+
+def _outside_tolerance(below: int, above: int, got_below: float, got_above: float, tolerance: float) -> str:
+    return (f"the nearest whole turns ({below} or {above}) give {format_quantity(got_below, 'H')} or "
+            f"{format_quantity(got_above, 'H')}, outside ±{tolerance:.1%}")
+
+
+def _saturates(current: float, flux: float, limit: float) -> str:
+    return (f"at {format_quantity(current, 'A')} the core would run at {format_quantity(flux, 'T')}, "
+            f"{flux / limit:.0%} of its {format_quantity(limit, 'T')} saturation")
+
+
+def _with_wire(label: str, reason) -> str:
+    return f"with {label}: {_text(reason)}"
+
+
 def _solve_on_form(form, targets, frequency, tolerance, current, settings):
-    """Turns and figures for every coil on one form; (arrays, reasons) with NaN turns where rejected."""
+    """Turns and figures for every coil on one form; (arrays, reasons) with NaN turns where rejected.
+
+    A reason is kept as (function, arguments) and written only when a message needs it (most are never read).
+    """
     count = targets.size
-    reasons: dict[int, str] = {}
+    reasons: dict[int, object] = {}
     turns = np.full(count, np.nan)
-    top = math.floor(float(form.max_turns()) + 1e-9)
+    top = winding_limit(form)
     if top < 1:
         return turns, dict.fromkeys(range(count), f"not one turn fits: {form.limit_reason(1.0)}"), None
     smallest, largest = (float(v) for v in form.inductance(np.array([1.0, float(top)])))
@@ -234,14 +243,10 @@ def _solve_on_form(form, targets, frequency, tolerance, current, settings):
         omega2 = (2.0 * np.pi * frequency[tuned]) ** 2
         low_target[tuned] = targets[tuned] / (1.0 + omega2 * targets[tuned] * capacitance)
         solve(tuned)
-    # the reasons are formatted only when a message needs them (most are never read)
-    for index in np.flatnonzero(low_target < smallest):
-        reasons[int(index)] = lambda t=float(targets[index]): (
-            f"a single turn already gives {format_quantity(smallest, 'H')}, above the {format_quantity(t, 'H')} wanted")
-    for index in np.flatnonzero(low_target > largest):
-        reasons[int(index)] = lambda t=float(targets[index]): (
-            f"needs {format_quantity(t, 'H')}, above the {format_quantity(largest, 'H')} of "
-            f"{form.limit_reason(float(top))}")
+    for index in np.flatnonzero(low_target < smallest).tolist():
+        reasons[index] = (_single_turn_too_much, smallest, float(targets[index]))
+    for index in np.flatnonzero(low_target > largest).tolist():
+        reasons[index] = (_beyond_the_form, float(targets[index]), largest, form, top)
     inside = np.isfinite(exact)
     if not inside.any():
         return turns, reasons, None
@@ -257,29 +262,52 @@ def _solve_on_form(form, targets, frequency, tolerance, current, settings):
     columns = np.arange(where.size)
     chosen = trial[best_row, columns]
     apparent = trial_apparent[best_row, columns]
-    below, above = trial[1], trial[2]
-    app_below, app_above = trial_apparent[1], trial_apparent[2]
     closeness = np.abs(apparent - wanted) / wanted
-    for position, index in enumerate(where):
-        if not np.isfinite(apparent[position]):
-            reasons[int(index)] = lambda f=float(f[position]), n=int(chosen[position]): (
-                f"self-resonates below its {format_quantity(f, 'Hz')} operating frequency at {n} turns")
-        elif closeness[position] > tolerance[index]:
-            reasons[int(index)] = lambda n=(int(below[position]), int(above[position])), got=(
-                    float(app_below[position]), float(app_above[position])), tol=float(tolerance[index]): (
-                f"the nearest whole turns ({n[0]} or {n[1]}) give {format_quantity(got[0], 'H')} or "
-                f"{format_quantity(got[1], 'H')}, outside ±{tol:.1%}")
+    resonant = ~np.isfinite(apparent)
+    for position in np.flatnonzero(resonant).tolist():
+        reasons[int(where[position])] = (_self_resonant, float(f[position]), int(chosen[position]))
+    for position in np.flatnonzero(~resonant & (closeness > tolerance[where])).tolist():
+        reasons[int(where[position])] = (_outside_tolerance, int(trial[1, position]), int(trial[2, position]),
+                                         float(trial_apparent[1, position]), float(trial_apparent[2, position]),
+                                         float(tolerance[where[position]]))
     if hasattr(form, "flux_density") and form.saturation_flux_density:
         flux = np.asarray(form.flux_density(chosen, current[where]), dtype=float)
         limit = float(form.saturation_flux_density)
-        for position, index in enumerate(where):
-            if current[index] > 0 and flux[position] >= NEAR_SATURATION * limit and int(index) not in reasons:
-                reasons[int(index)] = (f"at {format_quantity(current[index], 'A')} the core would run at "
-                                       f"{format_quantity(flux[position], 'T')}, {flux[position] / limit:.0%} of "
-                                       f"its {format_quantity(limit, 'T')} saturation")
+        for position in np.flatnonzero((current[where] > 0) & (flux >= NEAR_SATURATION * limit)).tolist():
+            reasons.setdefault(int(where[position]), (_saturates, float(current[where[position]]),
+                                                      float(flux[position]), limit))
     turns[where] = chosen
     extra = {"apparent": apparent, "closeness": closeness, "where": where}
     return turns, reasons, extra
+
+
+def _tap_too_far(tap: int, turns: int) -> str:
+    return f"the tap at turn {tap} needs more than the {turns} turns of this winding"
+
+
+def _tap_on_one_turn() -> str:
+    return "a tap needs at least 2 turns; this winding has 1"
+
+
+def _taps(coils, tapped, selected, turns):
+    """The tap's turn for each chosen coil (−1: none asked), and the reasons where it cannot be placed.
+
+    A fraction is rounded to the nearest whole turn, kept at least one turn from either end.
+    """
+    taps = np.full(turns.size, -1, dtype=np.int64)
+    reasons: dict[int, object] = {}
+    for position in np.flatnonzero(tapped[selected]).tolist():
+        coil, n = coils[int(selected[position])], int(turns[position])
+        if coil.tap_turns is not None:
+            if coil.tap_turns >= n:
+                reasons[position] = (_tap_too_far, coil.tap_turns, n)
+            else:
+                taps[position] = coil.tap_turns
+        elif n < 2:
+            reasons[position] = (_tap_on_one_turn,)
+        else:
+            taps[position] = min(max(math.floor(coil.tap_fraction * n + 0.5), 1), n - 1)
+    return taps, reasons
 
 
 def evaluate_plan(plan, progress=None) -> Evaluation:
@@ -295,184 +323,89 @@ def evaluate_plan(plan, progress=None) -> Evaluation:
     -------
     Evaluation
     """
+    with warnings.catch_warnings():  # the models' range warnings are given for the chosen windings only
+        warnings.simplefilter("ignore", CoilplanWarning)
+        return _evaluate(plan, progress)
+
+
+def _evaluate(plan, progress) -> Evaluation:
     settings = plan.settings
-    stock = _stock(plan)
-    wires = _wires(plan)
+    stock = stock_items(plan)
+    wires = plan_wires(plan)
     coils = plan.coil
     targets = np.array([coil.target_inductance for coil in coils])
     frequency = np.array([coil.operating_frequency or 0.0 for coil in coils])
     tolerance = np.array([coil.tolerance for coil in coils])
     current = np.array([coil.current for coil in coils])
+    tapped = np.array([coil.tapped for coil in coils], dtype=bool)
     shape = (len(coils), len(stock))
     wire_length = np.full(shape, np.inf)
     closeness = np.full(shape, np.inf)
     q_cost = np.full(shape, np.inf)
-    candidates: dict[tuple[int, int], Candidate] = {}
-    options: dict[tuple[int, int], list[Candidate]] = {}
-    reasons: dict[tuple[int, int], str] = {}
-    form_name = {"former": "solenoid", "toroid": "toroid"}
+    reasons: dict[tuple[int, int], object] = {}
+    forms: dict[tuple[int, int], object] = {}
+    kept: list[tuple] = []  # per stock item, the arrays of its options in order
     for s, item in enumerate(stock):
-        allowed = np.array([form_name[item.kind] in coil.forms for coil in coils])
+        allowed = np.array([item.form_name in coil.forms for coil in coils])
         for c in np.flatnonzero(~allowed):
             reasons[(int(c), s)] = f"not allowed: the coil takes {', '.join(coils[c].forms)} only"
-        ranked_options: dict[int, list[tuple[tuple[int, int, int], Candidate]]] = {}
-        best: dict[int, tuple[int, int, int]] = {}
-        for w, (_, _, wire) in enumerate(wires):
+        chosen = np.flatnonzero(allowed)
+        found: list[tuple] = []  # per wire: the arrays of its windings that work
+        for w, (_, _, wire) in enumerate(wires if chosen.size else []):
             try:
                 form = build_form(item, wire, settings)
             except InvalidInputError as error:
-                for c in np.flatnonzero(allowed):
+                for c in chosen:
                     reasons.setdefault((int(c), s), f"{wire.label} wire does not suit it: expected {error.expected}")
                 continue
-            chosen = np.flatnonzero(allowed)
-            if chosen.size == 0:
-                break
+            forms[(s, w)] = form
             turns, why, extra = _solve_on_form(form, targets[chosen], frequency[chosen], tolerance[chosen],
                                                current[chosen], settings)
+            if extra is not None:
+                good = ~np.isin(extra["where"], np.fromiter(why, dtype=np.int64, count=len(why)))
+                taps, tap_why = _taps(coils, tapped, chosen[extra["where"]], turns[extra["where"]])
+                for position, text in tap_why.items():
+                    why.setdefault(int(extra["where"][position]), text)
+                    good[position] = False
             for local, reason in why.items():
-                reasons.setdefault((int(chosen[local]), s),
-                                   lambda r=reason, label=wire.label: f"with {label}: {_text(r)}")
-            if extra is None:
-                continue
-            good = [p for p, local in enumerate(extra["where"]) if int(local) not in why]
-            if not good:
+                key = (int(chosen[local]), s)
+                if key not in reasons:
+                    reasons[key] = (_with_wire, wire.label, reason)
+            if extra is None or not good.any():
                 continue
             local = extra["where"][good]
             n = turns[local]
             length = np.asarray(form.wire_length(n), dtype=float) * (1.0 + settings.wire_margin)
             f = frequency[chosen][local]
+            safe_f = np.where(f > 0, f, 1.0)
             with np.errstate(divide="ignore", invalid="ignore"):
-                resistance = np.asarray(form.ac_resistance(n, np.where(f > 0, f, 1.0), settings.temperature_C))
-                q = np.where(f > 0, q_factor(form.inductance(n), resistance, np.where(f > 0, f, 1.0)), np.nan)
+                resistance = np.asarray(form.ac_resistance(n, safe_f, settings.temperature_C))
+                q = np.where(f > 0, q_factor(form.inductance(n), resistance, safe_f), np.nan)
             lows = np.asarray(form.inductance(n), dtype=float)
             q_term = np.where(np.isfinite(q), 1.0 / (1.0 + q), 0.0)
-            close = extra["closeness"][good]
-            ranks = zip(np.rint(length / 1e-3).astype(np.int64).tolist(),
-                        np.rint(close / CLOSENESS_STEP).astype(np.int64).tolist(),
-                        np.rint(q_term * Q_STEPS).astype(np.int64).tolist(), strict=True)
-            q_values = [None if not math.isfinite(value) else value for value in q.tolist()]
-            rows = zip(chosen[local].tolist(), ranks, n.astype(np.int64).tolist(), lows.tolist(),
-                       extra["apparent"][good].tolist(), length.tolist(), close.tolist(), q_term.tolist(), q_values,
-                       strict=True)
-            for c, ranked, whole, low, app, cut, near, q_part, q_value in rows:
-                candidate = Candidate(c, s, w, whole, low, app, cut, q_value)
-                if c not in best or ranked < best[c]:
-                    best[c] = ranked
-                    wire_length[c, s], closeness[c, s], q_cost[c, s] = cut, near, q_part
-                ranked_options.setdefault(c, []).append((ranked, candidate))
-        for c, ranked in ranked_options.items():
-            ranked.sort(key=lambda item: item[0])  # stable: the first of equals stays first
-            options[(c, s)] = [candidate for _, candidate in ranked]
-            candidates[(c, s)] = options[(c, s)][0]
-            reasons.pop((c, s), None)
+            found.append((chosen[local], np.full(local.size, w), n, lows, extra["apparent"][good], length,
+                          extra["closeness"][good], q_term, q, taps[good]))
+        if found:
+            columns = [np.concatenate(column) for column in zip(*found, strict=True)]
+            c_all, w_all, _, _, _, cut_all, near_all, q_part_all, _, _ = columns
+            # each pair's wires cheapest first: wire to 1 mm, then closeness, then Q; the first wire of equals first
+            order = np.lexsort((w_all, np.rint(q_part_all * Q_STEPS), np.rint(near_all / CLOSENESS_STEP),
+                                np.rint(cut_all / 1e-3), c_all))
+            columns = [column[order] for column in columns]
+            kept.append((columns[0], np.full(order.size, s), *columns[1:]))
+            c_sorted = columns[0]
+            first = np.flatnonzero(np.r_[True, c_sorted[1:] != c_sorted[:-1]])
+            best_coils = c_sorted[first]
+            wire_length[best_coils, s] = columns[5][first]
+            closeness[best_coils, s] = columns[6][first]
+            q_cost[best_coils, s] = columns[7][first]
         if progress is not None:
             progress(1)
-    return Evaluation(plan, stock, wires, candidates, options, reasons, wire_length, closeness, q_cost)
-
-
-# --- assignment -------------------------------------------------------------------------------------
-
-
-def cost_levels(evaluation: Evaluation, wire_resolution: float, with_q: bool = True):
-    """Whole-number cost levels per (coil type, stock item): wire units, closeness steps, Q steps."""
-    feasible = evaluation.feasible
-    wire_units = np.where(feasible, np.rint(np.where(feasible, evaluation.wire_length, 0) / wire_resolution), 0)
-    close_units = np.where(feasible, np.rint(np.where(feasible, evaluation.closeness, 0) / CLOSENESS_STEP), 0)
-    q_units = np.where(feasible & with_q, np.rint(np.where(feasible, evaluation.q_cost, 0) * Q_STEPS), 0)
-    return wire_units.astype(np.int64), close_units.astype(np.int64), q_units.astype(np.int64)
-
-
-def _weights(rows: int, wire_units, close_units, q_units):
-    """Level weights (w_wire, w_close, w_q) and the 'not placed' cost, each above what the levels below sum to."""
-    w_q = 1
-    w_close = rows * int(q_units.max(initial=0)) + 1
-    w_wire = w_close * (rows * int(close_units.max(initial=0)) + 1) + rows * int(q_units.max(initial=0))
-    largest_row = w_wire * int(wire_units.max(initial=0)) + w_close * int(close_units.max(initial=0)) + \
-        int(q_units.max(initial=0))
-    unplaced = rows * largest_row + 1
-    return w_wire, w_close, w_q, unplaced, rows * unplaced
-
-
-def assign_units(evaluation: Evaluation):
-    """The optimal unit assignment.
-
-    Returns (per coil unit the stock unit's column or None, the objective (unplaced, wire units,
-    closeness steps, Q steps), the wire resolution in m, whether Q took part, the coil type of each
-    row, the stock item of each column).
-
-    The expanded matrix has one row per coil unit and one column per stock unit, then one
-    "not placed" column per row; infeasible cells are forbidden (infinite cost).
-    """
-    from scipy.optimize import linear_sum_assignment
-
-    coils = evaluation.plan.coil
-    row_type = np.repeat(np.arange(len(coils)), [coil.count for coil in coils])
-    col_type = np.repeat(np.arange(len(evaluation.stock)), [item.count for item in evaluation.stock])
-    rows = row_type.size
-    resolution, with_q = 1e-3, True
-    while True:
-        levels = cost_levels(evaluation, resolution, with_q)
-        w_wire, w_close, w_q, unplaced_cost, bound = _weights(rows, *levels)
-        if bound < _EXACT:
-            break
-        if with_q:
-            with_q = False
-        else:
-            resolution *= 10.0
-    wire_units, close_units, q_units = levels
-    type_cost = (wire_units * w_wire + close_units * w_close + q_units * w_q).astype(float)
-    type_cost[~evaluation.feasible] = np.inf
-    real = type_cost[np.ix_(row_type, col_type)] if col_type.size else np.zeros((rows, 0))
-    dummy = np.full((rows, rows), np.inf)
-    np.fill_diagonal(dummy, float(unplaced_cost))
-    matrix = np.hstack([real, dummy])
-    picked_rows, picked_cols = linear_sum_assignment(matrix)
-    assignment: list[int | None] = [None] * rows
-    for r, c in zip(picked_rows, picked_cols, strict=True):
-        assignment[int(r)] = int(c) if c < col_type.size else None
-    objective = _objective(assignment, row_type, col_type, levels)
-    return assignment, objective, resolution, with_q, row_type, col_type
-
-
-def _objective(assignment, row_type, col_type, levels) -> tuple[int, int, int, int]:
-    wire_units, close_units, q_units = levels
-    unplaced = sum(1 for column in assignment if column is None)
-    totals = [0, 0, 0]
-    for row, column in enumerate(assignment):
-        if column is None:
-            continue
-        cell = (row_type[row], col_type[column])
-        totals[0] += int(wire_units[cell])
-        totals[1] += int(close_units[cell])
-        totals[2] += int(q_units[cell])
-    return unplaced, *totals
-
-
-# --- wire ----------------------------------------------------------------------------------------
-
-
-def allocate_wire(pieces: list[tuple[str, float]], reels: list[dict]) -> list[int]:
-    """First-fit decreasing: each piece (wire key, length), longest first, to the first reel of its wire that holds it.
-
-    ``reels`` is updated in place (``used_m``, ``pieces``); returns the indices of the pieces placed.
-
-    Examples
-    --------
-    >>> reels = [{"wire": "a", "length_m": 6.0, "used_m": 0.0, "pieces": 0},
-    ...          {"wire": "a", "length_m": 5.0, "used_m": 0.0, "pieces": 0}]
-    >>> sorted(allocate_wire([("a", 2.0), ("a", 4.0), ("a", 3.0)], reels)), [reel["used_m"] for reel in reels]
-    ([0, 1, 2], [6.0, 3.0])
-    """
-    placed = []
-    for index in sorted(range(len(pieces)), key=lambda i: -pieces[i][1]):
-        key, length = pieces[index]
-        for reel in reels:
-            if reel["wire"] == key and reel["length_m"] - reel["used_m"] >= length - 1e-12:
-                reel["used_m"] += length
-                reel["pieces"] += 1
-                placed.append(index)
-                break
-    return placed
+    # found's columns: coil, wire, turns, L, L at f, length, closeness, Q cost, Q, tap; kept adds the stock second
+    kinds = (np.int64, np.int64, np.int64, np.int64, float, float, float, float, float, float, np.int64)
+    arrays = {name: (np.concatenate([entry[k] for entry in kept]).astype(kind) if kept else np.zeros(0, kind))
+              for k, (name, kind) in enumerate(zip(OPTION_FIELDS, kinds, strict=True))}
+    return Evaluation(plan, stock, wires, reasons, wire_length, closeness, q_cost, forms, arrays)
 
 
 def wire_key(text: str, grade: str) -> str:
@@ -483,16 +416,32 @@ def wire_key(text: str, grade: str) -> str:
 # --- the whole plan --------------------------------------------------------------------------------
 
 
-def _explain(evaluation: Evaluation, coil_index: int, missing: int, taken: dict[int, dict[int, int]]) -> str:
+def _explain(evaluation: Evaluation, coil_index: int, missing: int, taken: dict[int, dict[int, int]],
+             shortfall: dict[str, float]) -> str:
     coil = evaluation.plan.coil[coil_index]
     head = f"coil {coil.name!r} × {missing}"
     fits = [s for s in range(len(evaluation.stock)) if evaluation.feasible[coil_index, s]]
     if not fits:
-        why = [f"{evaluation.stock[s].label}: {evaluation.reason(coil_index, s)}" for s in range(len(evaluation.stock))]
+        allowed = [s for s, item in enumerate(evaluation.stock) if item.form_name in coil.forms]
+        others = [s for s in range(len(evaluation.stock)) if s not in allowed]  # "not allowed" says least: last
+        why = [f"{evaluation.stock[s].label}: {evaluation.reason(coil_index, s)}" for s in allowed + others]
         if not why:
             return f"{head}: there is no stock in the plan"
         shown = "; ".join(why[:3]) + (f"; and {len(why) - 3} more" if len(why) > 3 else "")
         return f"{head}: no stock fits it ({shown})"
+    free = [s for s in fits if sum(taken.get(s, {}).values()) < evaluation.stock[s].count]
+    if free:
+        keys = []
+        for s in free:
+            for option in evaluation.options_of(coil_index, s):
+                key = wire_key(*evaluation.wires[option.wire][:2])
+                if key not in keys:
+                    keys.append(key)
+        short = [f"{key} ({format_length(shortfall[key])} short)" if key in shortfall else key for key in keys]
+        spare = ", ".join(f"{evaluation.stock[s].count - sum(taken.get(s, {}).values())} of "
+                          f"{evaluation.stock[s].label}" for s in free[:3])
+        return (f"{head}: the reels run out of the wire it needs ({', '.join(short)}); stock that would "
+                f"carry it is left over ({spare})")
     parts = []
     for s in fits[:3]:
         holders = taken.get(s, {})
@@ -509,63 +458,47 @@ def _explain(evaluation: Evaluation, coil_index: int, missing: int, taken: dict[
 
 
 def plan_kit(plan, progress=None) -> KitResult:
-    """Evaluate, assign and allocate wire for a validated plan (see the module notes for the objective).
+    """Evaluate, then share out the stock and the wire for a validated plan (the objective: optimise's notes).
 
     Raises
     ------
     InfeasibleError
         Never for a partial plan (the result lists what could not be placed); only for a plan with
-        no coil and no stock (cannot happen for a validated plan).
+        no coil (cannot happen for a validated plan).
     """
-    evaluation = evaluate_plan(plan, progress)
-    assignment, objective, resolution, with_q, row_type, col_type = assign_units(evaluation)
-    if len(row_type) == 0:
+    if not any(coil.count for coil in plan.coil):
         raise InfeasibleError("the plan asks for no coils")
-    units = [(int(row_type[row]), int(col_type[column])) for row, column in enumerate(assignment)
-             if column is not None]
+    evaluation = evaluate_plan(plan, progress)
+    solution: Solution = optimise(evaluation)
     keys = [wire_key(text, grade) for text, grade, _ in evaluation.wires]
-    reels = [{"wire": wire_key(r.wire, r.grade), "length_m": float(r.length), "used_m": 0.0, "pieces": 0}
-             for r in plan.reel]
-    # wire: first-fit decreasing on each unit's cheapest wire; units left over try their next wire, and so on
-    chosen: list[Candidate | None] = [None] * len(units)
-    pending = list(range(len(units)))
-    rank = 0
-    while pending:
-        trying = [u for u in pending if rank < len(evaluation.options[units[u]])]
-        if not trying:
-            break
-        options = [evaluation.options[units[u]][rank] for u in trying]
-        placed = allocate_wire([(keys[o.wire], o.wire_length) for o in options], reels)
-        for index in placed:
-            chosen[trying[index]] = options[index]
-        pending = [u for u in pending if chosen[u] is None]
-        rank += 1
-    shortfall: dict[str, float] = {}
-    for u in pending:  # no reel holds any of its wires: report the cheapest one as short
-        best = evaluation.options[units[u]][0]
-        shortfall[keys[best.wire]] = shortfall.get(keys[best.wire], 0.0) + best.wire_length
-        chosen[u] = best
-    grouped: dict[tuple[int, int, int], int] = {}
-    for (c, s), candidate in zip(units, chosen, strict=True):
-        grouped[(c, s, candidate.wire)] = grouped.get((c, s, candidate.wire), 0) + 1
+    reels = [{"reel": number, "wire": wire_key(r.wire, r.grade), "length_m": float(r.length), "used_m": 0.0,
+              "pieces": 0} for number, r in enumerate(plan.reel, start=1)]
+    grouped: dict[tuple[int, int, int], dict[int, int]] = {}
+    for (o, r), units in solution.cuts.items():
+        option = evaluation.candidate(o)
+        reels[r]["used_m"] += units * option.wire_length
+        reels[r]["pieces"] += units
+        cut = grouped.setdefault((option.coil, option.stock, option.wire), {})
+        cut[r] = cut.get(r, 0) + units
     placements = []
-    forms: dict[tuple[int, int], object] = {}
-    for (c, s, w), quantity in sorted(grouped.items()):
-        candidate = next(o for o in evaluation.options[(c, s)] if o.wire == w)
-        if (s, w) not in forms:
-            forms[(s, w)] = build_form(evaluation.stock[s], evaluation.wires[w][2], plan.settings)
-        placements.append(Placement(c, s, quantity, candidate, forms[(s, w)]))
+    for (c, s, w), from_reels in sorted(grouped.items()):
+        candidate = next(o for o in evaluation.options_of(c, s) if o.wire == w)
+        placements.append(Placement(c, s, sum(from_reels.values()), candidate, evaluation.forms[(s, w)],
+                                    tuple(sorted(from_reels.items()))))
     taken: dict[int, dict[int, int]] = {}
-    for (c, s, _), quantity in grouped.items():
-        taken.setdefault(s, {})[c] = taken.get(s, {}).get(c, 0) + quantity
+    for p in placements:
+        taken.setdefault(p.stock, {})[p.coil] = taken.get(p.stock, {}).get(p.coil, 0) + p.quantity
+    shortfall = {keys[w]: length for w, length in sorted(solution.shortfall.items())}
     unplaced = []
     for c, coil in enumerate(plan.coil):
-        placed = sum(q for (cc, _, _), q in grouped.items() if cc == c)
+        placed = sum(p.quantity for p in placements if p.coil == c)
         if placed < coil.count:
-            unplaced.append(_explain(evaluation, c, coil.count - placed, taken))
+            unplaced.append(_explain(evaluation, c, coil.count - placed, taken, shortfall))
     for key, length in shortfall.items():
-        unplaced.append(f"wire {key}: {format_length(length)} short of what the placed coils need")
-    return KitResult(evaluation, placements, assignment, objective, resolution, with_q, reels, shortfall, unplaced)
+        unplaced.append(f"wire {key}: {format_length(length)} short: that much more would let the coils the "
+                        f"stock can carry be wound")
+    return KitResult(evaluation, placements, solution.objective, solution.resolution, solution.with_q,
+                     solution.method, solution.proven, solution.bound, reels, shortfall, unplaced)
 
 
 def captured(function, *args, **kwargs):

@@ -1,16 +1,17 @@
 """What the kit planner hands out: the summary table, the plan as JSON, the bill of materials, the winding cards.
 
 Every figure comes from :func:`placement_fields`, so the table, the JSON, the CSV and the cards
-always agree. The cards are self-contained HTML pages with the form drawn to scale in inline SVG.
+always agree. The cards (:mod:`coilplan.kit.cards`) are self-contained HTML pages with the form drawn
+to scale in inline SVG.
 """
 
 from __future__ import annotations
 
 import csv
-import html
 import io
 import math
-import re
+
+import numpy as np
 
 from coilplan.apparent import ApparentForm, frequency_fields
 from coilplan.cautions import (
@@ -20,17 +21,65 @@ from coilplan.cautions import (
     tuned_circuit_cautions,
 )
 from coilplan.kit.assign import KitResult, Placement, captured, wire_key
+from coilplan.kit.cards import card_files, winding_card
+from coilplan.kit.stock import describe
 from coilplan.quantities import format_length, format_quantity
 from coilplan.report.json_report import json_document
 from coilplan.report.text import aligned_rows, bullet_lines
 from coilplan.saturation import saturation_check
 
-__all__ = ["bom_csv", "card_files", "kit_document", "placement_fields", "result_fields", "summary_lines",
-           "winding_card"]
+__all__ = ["ROD_UNCALIBRATED", "bom_csv", "card_files", "kit_document", "placement_fields", "result_fields",
+           "summary_lines", "winding_card"]
 
 
 def _henry(value: float) -> str:
     return format_quantity(value, "H", 4)
+
+
+#: Said of every winding on a rod whose model no reading has calibrated.
+ROD_UNCALIBRATED = ("the rod model is uncalibrated: expect tens of percent from a real rod; wind a test winding on "
+                    "one of these rods, measure it, and give the reading as measured (with measured_wire) in the "
+                    "plan to scale the model")
+
+
+#: The stock kinds wound in layers (the others take one layer).
+LAYERED = ("gapped", "bobbin")
+
+
+def _layer_of(item, form, turns: int | None) -> int | None:
+    """The layer turn ``turns`` ends in (1 for a single-layer form; None for no turn)."""
+    if turns is None:
+        return None
+    return int(form.layers(turns)) if item.kind in LAYERED else 1
+
+
+def _layer_turns(form, turns: int) -> list[int]:
+    """Turns in each layer, the first layer first."""
+    layers = np.asarray(form.layers(np.arange(1, turns + 1)), dtype=np.int64)
+    return np.bincount(layers)[1:].tolist()
+
+
+def _form_fields(item, form, turns: int) -> dict:
+    """The dimensions of the form and how the winding sits on it (SI)."""
+    spec = item.spec
+    if item.kind == "former":
+        return dict(former_diameter_m=spec.diameter, former_length_m=spec.length,
+                    winding_length_m=float(form.winding_length(turns)), pitch_m=float(form.pitch_at(turns)))
+    if item.kind == "toroid":
+        return dict(od_m=spec.od, id_m=spec.id, height_m=spec.height, al_H=form.al, material=spec.material)
+    if item.kind == "rod":
+        return dict(rod_length_m=spec.length, rod_diameter_m=spec.diameter, former_diameter_m=spec.former,
+                    winding_length_m=float(form.winding_length(turns)), pitch_m=float(form.pitch_at(turns)),
+                    material=spec.material, mu_initial=float(form.mu_initial),
+                    rod_permeability=float(form.rod_permeability()), calibration_factor=item.scale)
+    if item.kind == "gapped":
+        return dict(ae_m2=spec.ae, le_m=spec.le, gap_m=spec.gap, al_H=float(form.al_value), material=spec.material,
+                    window_width_m=spec.window_width, window_depth_m=spec.window_depth,
+                    leg_diameter_m=2.0 * math.sqrt(spec.ae / math.pi), turns_per_layer=form.turns_per_layer(),
+                    wire_pitch_m=form.wire.overall_diameter, layer_turns=_layer_turns(form, turns))
+    return dict(bobbin_diameter_m=spec.diameter, bobbin_width_m=spec.width, bobbin_depth_m=spec.depth,
+                style=spec.style, turns_per_layer=form.turns_per_layer(), build_m=float(form.depth(turns)),
+                pitch_m=float(form.pitch), layer_pitch_m=float(form.layer_pitch), layer_turns=_layer_turns(form, turns))
 
 
 def placement_fields(result: KitResult, placement: Placement) -> dict:
@@ -43,14 +92,17 @@ def placement_fields(result: KitResult, placement: Placement) -> dict:
     form = placement.form
     turns = placement.candidate.turns
     frequency = coil.operating_frequency
+    tap = placement.candidate.tap
     fields = {
         "coil": coil.name, "quantity": placement.quantity, "count_wanted": coil.count,
-        "stock": item.label, "stock_kind": item.kind, "form": "solenoid" if item.kind == "former" else "toroid",
-        "wire": wire.label, "wire_reel": wire_key(text, grade), "turns": turns, "layers": 1,
+        "stock": item.label, "stock_kind": item.kind, "form": item.form_name,
+        "wire": wire.label, "wire_reel": wire_key(text, grade), "turns": turns, "layers": _layer_of(item, form, turns),
+        "tap_turn": tap, "tap_layer": _layer_of(item, form, tap),
         "target_H": coil.target_inductance, "tolerance": coil.tolerance,
         "inductance_H": placement.candidate.inductance,
         "wire_length_m": placement.candidate.wire_length, "wire_length_total_m":
             placement.candidate.wire_length * placement.quantity, "lead_m": settings.lead,
+        "reels": [{"reel": r + 1, "pieces": pieces} for r, pieces in placement.reels],
     }
     operating = placement.candidate.apparent_inductance
     meter = settings.meter_frequency
@@ -59,24 +111,22 @@ def placement_fields(result: KitResult, placement: Placement) -> dict:
                   accept_low_H=expected * coil.target_inductance * (1 - coil.tolerance) / operating,
                   accept_high_H=expected * coil.target_inductance * (1 + coil.tolerance) / operating)
     extra, warnings_ = captured(frequency_fields, form, turns, frequency, settings.temperature_C)
+    if hasattr(form, "validity_warnings"):  # the model's own range, for the turns chosen
+        warnings_ += [text for text in captured(form.validity_warnings, turns)[1] if text not in warnings_]
     fields.update(extra)
-    spec = item.spec
-    if item.kind == "former":
-        fields.update(former_diameter_m=spec.diameter, former_length_m=spec.length,
-                      winding_length_m=float(form.winding_length(turns)), pitch_m=float(form.pitch_at(turns)))
-    else:
-        fields.update(od_m=spec.od, id_m=spec.id, height_m=spec.height, al_H=form.al,
-                      material=spec.material)
+    fields.update(_form_fields(item, form, turns))
+    if item.kind == "rod" and item.scale is None:
+        warnings_.append(ROD_UNCALIBRATED)
     cautions = list(tuned_circuit_cautions(coil.tuned))
     near = False
-    if item.kind == "toroid" and coil.current > 0:
+    if item.kind in ("toroid", "rod", "gapped") and coil.current > 0:
         check = saturation_check(form, turns, dc_current=coil.current)
         fields.update(flux_density_T=check.flux_density_peak, saturation_flux_density_T=check.saturation_flux_density)
         near = check.near_saturation
     density = coil.current / (wire.area * 1e6) if coil.current else 0.0
     cautions += hot_winding_cautions(current_density=density, temperature_C=settings.temperature_C,
                                      near_saturation=near)
-    if item.kind == "toroid" and spec.material in MAINS_EQUIPMENT_CLASSES:
+    if item.kind in ("toroid", "gapped") and item.spec.material in MAINS_EQUIPMENT_CLASSES:
         cautions.append(salvaged_mains_caution())
     fields["warnings"] = warnings_
     fields["cautions"] = cautions
@@ -87,14 +137,18 @@ def result_fields(result: KitResult) -> dict:
     """The whole plan as one mapping (the JSON ``result``)."""
     placements = [placement_fields(result, placement) for placement in result.placements]
     wanted = sum(coil.count for coil in result.evaluation.plan.coil)
+    objective = {"order": ["unplaced coils", "wire used", "closeness to target", "Q at the operating frequency"],
+                 "unplaced": result.objective[0], "wire_units": result.objective[1],
+                 "closeness_steps": result.objective[2], "q_steps": result.objective[3],
+                 "wire_resolution_m": result.wire_resolution_m, "q_in_objective": result.q_in_objective,
+                 "solver": result.solver, "proven_optimal": result.proven_optimal}
+    if result.bound is not None:
+        objective["bound"] = {"unplaced": result.bound[0], "wire_units": result.bound[1]}
     return {
         "complete": result.complete,
         "coils_wanted": wanted,
         "coils_placed": sum(p.quantity for p in result.placements),
-        "objective": {"order": ["unplaced coils", "wire used", "closeness to target", "Q at the operating frequency"],
-                      "unplaced": result.objective[0], "wire_units": result.objective[1],
-                      "closeness_steps": result.objective[2], "q_steps": result.objective[3],
-                      "wire_resolution_m": result.wire_resolution_m, "q_in_objective": result.q_in_objective},
+        "objective": objective,
         "placements": placements,
         "reels": [dict(reel) for reel in result.reels],
         "shortfall_m": dict(result.shortfall),
@@ -126,16 +180,38 @@ def kit_document(plan_file: str, fields: dict) -> str:
     return json_document("kit", {"plan": str(plan_file)}, fields, _warnings(fields), _cautions(fields))
 
 
+def _tap_text(p: dict) -> str:
+    return "" if p["tap_turn"] is None else str(p["tap_turn"])
+
+
+def _optimality(fields: dict) -> list[str]:
+    """A line when the share-out is not proven optimal: how far from the optimum it can be."""
+    objective = fields["objective"]
+    if objective["proven_optimal"]:
+        return []
+    bound = objective.get("bound")
+    if bound is None:
+        return ["the share-out is the best found in the time allowed, not proven optimal"]
+    if bound["unplaced"] < objective["unplaced"]:
+        return [f"the share-out is not proven optimal: at most {objective['unplaced'] - bound['unplaced']} more "
+                f"coils could be placed"]
+    gap = (objective["wire_units"] - bound["wire_units"]) * objective["wire_resolution_m"]
+    return [f"the share-out places as many coils as can be, with at most {format_length(gap)} more wire than "
+            f"the least possible (not proven optimal beyond that)"]
+
+
 def summary_lines(plan_file: str, fields: dict) -> list[str]:
     """The summary table for the terminal."""
     total = sum(p["wire_length_total_m"] for p in fields["placements"])
     lines = [f"Kit plan {plan_file}: {fields['coils_placed']} of {fields['coils_wanted']} coils placed, "
              f"{format_length(total)} of wire", ""]
-    rows = [("coil", "×", "on", "turns", "wire", "cut each", "meter reads", "accept")]
+    tapped = any(p["tap_turn"] is not None for p in fields["placements"])
+    rows = [("coil", "×", "on", "turns", *(("tap",) if tapped else ()), "wire", "cut each", "meter reads",
+             "accept")]
     for p in fields["placements"]:
-        rows.append((p["coil"], str(p["quantity"]), p["stock"], str(p["turns"]), p["wire"],
-                     format_length(p["wire_length_m"]), _henry(p["meter_inductance_H"]),
-                     f"{_henry(p['accept_low_H'])} to {_henry(p['accept_high_H'])}"))
+        rows.append((p["coil"], str(p["quantity"]), p["stock"], str(p["turns"]),
+                     *((_tap_text(p),) if tapped else ()), p["wire"], format_length(p["wire_length_m"]),
+                     _henry(p["meter_inductance_H"]), f"{_henry(p['accept_low_H'])} to {_henry(p['accept_high_H'])}"))
     lines += aligned_rows(rows)
     lines += ["", *aligned_rows([("reel", "on reel", "cut", "pieces")]
                                 + [(r["wire"], format_length(r["length_m"]), format_length(r["used_m"]),
@@ -143,29 +219,26 @@ def summary_lines(plan_file: str, fields: dict) -> list[str]:
     notes = bullet_lines("not done", fields["not_placed"])
     if notes:
         lines += ["", *notes]
-    for block in (bullet_lines("warnings", _warnings(fields)), bullet_lines("cautions", _cautions(fields))):
+    for block in (_optimality(fields), bullet_lines("warnings", _warnings(fields)),
+                  bullet_lines("cautions", _cautions(fields))):
         if block:
             lines += ["", *block]
     return lines
 
 
 def bom_csv(fields: dict, result: KitResult) -> str:
-    """The bill of materials: stock used, wire by reel wire, coils placed; one row each."""
+    """The bill of materials: stock used, wire by reel wire, the windings, the coils; one row each.
+
+    ``turns`` and ``tap_turn`` are filled on the winding rows (one per coil type, stock item and wire).
+    """
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
-    writer.writerow(["section", "item", "description", "needed", "unit", "on_hand", "short"])
+    writer.writerow(["section", "item", "description", "needed", "unit", "on_hand", "short", "turns", "tap_turn"])
     used: dict[str, int] = {}
     for p in fields["placements"]:
         used[p["stock"]] = used.get(p["stock"], 0) + p["quantity"]
     for item in result.evaluation.stock:
-        spec = item.spec
-        if item.kind == "former":
-            description = f"former, {format_length(spec.diameter)} diameter, {format_length(spec.length)} long"
-        else:
-            core = spec.material if spec.material else f"AL {format_quantity(spec.al, 'H')} per turn²"
-            description = (f"ring core, OD {format_length(spec.od)}, ID {format_length(spec.id)}, "
-                           f"height {format_length(spec.height)}, {core}")
-        writer.writerow(["stock", item.label, description, used.get(item.label, 0), "pcs", item.count, 0])
+        writer.writerow(["stock", item.label, describe(item), used.get(item.label, 0), "pcs", item.count, 0, "", ""])
     needed: dict[str, float] = {}
     on_hand: dict[str, float] = {}
     for p in fields["placements"]:
@@ -175,130 +248,17 @@ def bom_csv(fields: dict, result: KitResult) -> str:
     for key in on_hand:
         writer.writerow(["wire", key, "enamelled copper wire, cut lengths include the margin",
                          f"{needed.get(key, 0.0):.3f}", "m", f"{on_hand[key]:.3f}",
-                         f"{fields['shortfall_m'].get(key, 0.0):.3f}"])
+                         f"{fields['shortfall_m'].get(key, 0.0):.3f}", "", ""])
+    for p in fields["placements"]:
+        tap = f", tapped at turn {p['tap_turn']}" if p["tap_turn"] is not None else ""
+        layers = f" in {p['layers']} layers" if p["layers"] > 1 else ""
+        reels = ", ".join(f"reel {r['reel']} ({r['pieces']})" for r in p["reels"])
+        writer.writerow(["winding", f"{p['coil']} on {p['stock']}",
+                         f"{p['turns']} turns of {p['wire']}{layers}{tap}, {format_length(p['wire_length_m'])} "
+                         f"cut each from {reels}", p["quantity"], "pcs", "", "", p["turns"],
+                         "" if p["tap_turn"] is None else p["tap_turn"]])
     for coil in result.evaluation.plan.coil:
         placed = sum(p["quantity"] for p in fields["placements"] if p["coil"] == coil.name)
         writer.writerow(["coil", coil.name, f"target {_henry(coil.target_inductance)} ±{coil.tolerance:.1%}",
-                         coil.count, "pcs", placed, coil.count - placed])
+                         coil.count, "pcs", placed, coil.count - placed, "", ""])
     return out.getvalue()
-
-
-# --- winding cards ---------------------------------------------------------------------------------
-
-_STYLE = ("body{font-family:sans-serif;max-width:44em;margin:1em auto;color:#111}"
-          "table{border-collapse:collapse}td{padding:2px 10px 2px 0;vertical-align:top}"
-          "h2{margin-top:1.5em;border-bottom:1px solid #888}svg text{font-size:11px;font-family:sans-serif}"
-          ".c{color:#900}")
-
-
-def _solenoid_svg(p: dict) -> str:
-    """Side view of the former with the winding, to scale."""
-    length, diameter, winding = p["former_length_m"], p["former_diameter_m"], p["winding_length_m"]
-    scale = 360.0 / max(length, diameter)  # px per metre
-    w, h = length * scale, diameter * scale
-    x0, y0 = 60.0, 30.0
-    start = x0 + (w - winding * scale) / 2.0
-    turns = p["turns"]
-    parts = [f'<rect x="{x0:.1f}" y="{y0:.1f}" width="{w:.1f}" height="{h:.1f}" fill="#eee" stroke="#333"/>']
-    if turns <= 400:
-        pitch = p["pitch_m"] * scale
-        for k in range(turns):
-            x = start + (k + 0.5) * pitch
-            parts.append(f'<line x1="{x:.2f}" y1="{y0 - 2:.1f}" x2="{x:.2f}" y2="{y0 + h + 2:.1f}" '
-                         f'stroke="#b45f06" stroke-width="{max(pitch * 0.6, 0.5):.2f}"/>')
-    else:
-        parts.append(f'<rect x="{start:.1f}" y="{y0 - 2:.1f}" width="{winding * scale:.1f}" height="{h + 4:.1f}" '
-                     f'fill="#b45f06" opacity="0.6"/>')
-    parts += [
-        f'<text x="{x0 + w / 2:.1f}" y="{y0 + h + 22:.1f}" text-anchor="middle">former length '
-        f'{html.escape(format_length(length))}; winding {html.escape(format_length(winding))}</text>',
-        f'<text x="{x0 - 6:.1f}" y="{y0 + h / 2:.1f}" text-anchor="end">'
-        f'⌀ {html.escape(format_length(diameter))}</text>',
-    ]
-    return _svg(parts, x0 + w + 40, y0 + h + 40, scale)
-
-
-def _toroid_svg(p: dict) -> str:
-    """Top view of the ring with the turns spread round it, and its section, to scale."""
-    od, inner, height = p["od_m"], p["id_m"], p["height_m"]
-    scale = 260.0 / od
-    cx, cy = 20 + od * scale / 2, 20 + od * scale / 2
-    ro, ri = od * scale / 2, inner * scale / 2
-    parts = [f'<circle cx="{cx:.1f}" cy="{cy:.1f}" r="{ro:.1f}" fill="#ddd" stroke="#333"/>',
-             f'<circle cx="{cx:.1f}" cy="{cy:.1f}" r="{ri:.1f}" fill="#fff" stroke="#333"/>']
-    turns = p["turns"]
-    for k in range(min(turns, 400)):
-        angle = 2 * math.pi * k / turns
-        c, s = math.cos(angle), math.sin(angle)
-        parts.append(f'<line x1="{cx + (ri - 2) * c:.2f}" y1="{cy + (ri - 2) * s:.2f}" x2="{cx + (ro + 2) * c:.2f}" '
-                     f'y2="{cy + (ro + 2) * s:.2f}" stroke="#b45f06" stroke-width="1"/>')
-    sx = cx + ro + 40
-    width = (od - inner) / 2 * scale
-    parts += [f'<rect x="{sx:.1f}" y="{cy - height * scale / 2:.1f}" width="{width:.1f}" '
-              f'height="{height * scale:.1f}" fill="#ddd" stroke="#333"/>',
-              f'<text x="{cx:.1f}" y="{cy + ro + 18:.1f}" text-anchor="middle">OD {html.escape(format_length(od))}, '
-              f'ID {html.escape(format_length(inner))}</text>',
-              f'<text x="{sx:.1f}" y="{cy + height * scale / 2 + 16:.1f}">height '
-              f'{html.escape(format_length(height))}</text>']
-    return _svg(parts, sx + width + 90, cy + ro + 30, scale)
-
-
-def _svg(parts: list[str], width: float, height: float, scale: float) -> str:
-    note = f"drawn to scale: 1 mm = {scale / 1000:.3g} px"
-    return (f'<svg xmlns="http://www.w3.org/2000/svg" width="{width:.0f}" height="{height + 16:.0f}" '
-            f'viewBox="0 0 {width:.0f} {height + 16:.0f}" role="img" aria-label="{note}">'
-            + "".join(parts) + f'<text x="4" y="{height + 12:.0f}">{note}</text></svg>')
-
-
-def _card_rows(p: dict) -> list[tuple[str, str]]:
-    rows = [("wind", f"{p['turns']} turns in {p['layers']} layer of {p['wire']} wire ({p['wire_reel']})"),
-            ("cut", f"{format_length(p['wire_length_m'])} of wire for each coil "
-                    f"(leads {format_length(p['lead_m'])} at each end and the margin included)"),
-            ("on", p["stock"])]
-    meter = (f"at {format_quantity(p['meter_frequency_Hz'], 'Hz')}" if p["meter_frequency_Hz"]
-             else "at a low test frequency")
-    rows.append(("meter", f"expect {_henry(p['meter_inductance_H'])} {meter}; accept "
-                          f"{_henry(p['accept_low_H'])} to {_henry(p['accept_high_H'])}"))
-    rows.append(("target", f"{_henry(p['target_H'])} ±{p['tolerance']:.1%}"))
-    if p.get("frequency_Hz"):
-        rows.append(("at", f"{format_quantity(p['frequency_Hz'], 'Hz')}: L {_henry(p['apparent_inductance_H'])}, "
-                           f"R {format_quantity(p['ac_resistance_ohm'], 'ohm', 3)}, Q {p['q']:.0f}"))
-    if p.get("srf_Hz"):
-        rows.append(("self-resonance", f"{format_quantity(p['srf_Hz'], 'Hz', 3)} (self-capacitance "
-                                       f"{format_quantity(p['self_capacitance_F'], 'F', 2)}, estimated)"))
-    if p.get("flux_density_T") is not None and p.get("saturation_flux_density_T"):
-        rows.append(("core", f"{format_quantity(p['flux_density_T'], 'T', 3)} at the coil's current, saturation "
-                             f"{format_quantity(p['saturation_flux_density_T'], 'T', 3)}"))
-    return rows
-
-
-def winding_card(name: str, placements: list[dict]) -> str:
-    """A self-contained HTML winding card for one coil type (one section per stock item it is wound on)."""
-    body = [f"<h1>Winding card: {html.escape(name)}</h1>"]
-    for p in placements:
-        body.append(f"<h2>{p['quantity']} × on {html.escape(p['stock'])}</h2>")
-        body.append(_solenoid_svg(p) if p["form"] == "solenoid" else _toroid_svg(p))
-        body.append("<table>" + "".join(f"<tr><td>{html.escape(a)}</td><td>{html.escape(b)}</td></tr>"
-                                        for a, b in _card_rows(p)) + "</table>")
-        for title, items in (("warnings", p["warnings"]), ("cautions", p["cautions"])):
-            if items:
-                body.append(f'<p class="c">{title}:</p><ul>' + "".join(f"<li>{html.escape(t)}</li>" for t in items)
-                            + "</ul>")
-    return ("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
-            f"<title>{html.escape(name)}: winding card</title><style>{_STYLE}</style></head><body>"
-            + "\n".join(body) + "</body></html>\n")
-
-
-def card_files(fields: dict) -> dict[str, str]:
-    """File name → HTML of each coil type's winding card (names made safe and distinct)."""
-    by_coil: dict[str, list[dict]] = {}
-    for p in fields["placements"]:
-        by_coil.setdefault(p["coil"], []).append(p)
-    files: dict[str, str] = {}
-    for name, placements in by_coil.items():
-        slug = re.sub(r"[^A-Za-z0-9._-]+", "-", name).strip("-.") or "coil"
-        file, number = f"card-{slug}.html", 2
-        while file in files:
-            file, number = f"card-{slug}-{number}.html", number + 1
-        files[file] = winding_card(name, placements)
-    return files

@@ -13,12 +13,26 @@ table                  record              fields (SI after validation)
                                            ``meter_frequency``, ``temperature``
 ``[[coil]]``           :class:`CoilSpec`   ``name``, ``count``, ``target`` or
                                            ``target_frequency`` + ``capacitance``,
-                                           ``tolerance``, ``at``, ``current``, ``forms``
+                                           ``tolerance``, ``at``, ``current``, ``forms``,
+                                           ``tap_fraction`` or ``tap_turns``
 ``[[former]]``         :class:`FormerSpec` ``name``, ``diameter``, ``length``, ``count``
 ``[[toroid]]``         :class:`ToroidSpec` ``name``, ``od``, ``id``, ``height``,
                                            ``material`` or ``al``, ``count``
+``[[rod]]``            :class:`RodSpec`    ``name``, ``length``, ``diameter``, ``former``,
+                                           ``material`` or ``mu``, ``measured`` +
+                                           ``measured_wire``, ``count``
+``[[gapped]]``         :class:`GappedSpec` ``name``, ``ae``, ``le``, ``gap`` with
+                                           ``material`` or ``mu``, or ``al``;
+                                           ``window_width``, ``window_depth``,
+                                           ``fringing``, ``count``
+``[[bobbin]]``         :class:`BobbinSpec` ``name``, ``diameter``, ``width``, ``depth``,
+                                           ``style``, ``count``
 ``[[reel]]``           :class:`ReelSpec`   ``wire``, ``grade``, ``length``
 =====================  ==================  =================================================
+
+Each stock table is one coil form (:data:`STOCK_FORMS`): a former carries a single-layer solenoid,
+a ring core a toroid, a ferrite rod a single-layer coil on the rod, a gapped core (E, pot or drum
+core with its bobbin) layers of turns round its centre leg, and a bobbin a multilayer air-core coil.
 """
 
 from __future__ import annotations
@@ -29,27 +43,36 @@ import tomllib
 from pathlib import Path
 from typing import Annotated, Literal
 
-from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError, field_validator, model_validator
+from pydantic import AfterValidator, BaseModel, BeforeValidator, ConfigDict, Field, ValidationError, model_validator
 
 from coilplan._validation import first_problem
 from coilplan.errors import InvalidInputError
-from coilplan.quantities import parse_quantity, parse_relative, parse_temperature
+from coilplan.quantities import parse_measurement, parse_quantity, parse_relative, parse_temperature
 
 __all__ = [
-    "FORMS",
+    "BobbinSpec",
     "CoilSpec",
+    "FORMS",
     "FormerSpec",
+    "GappedSpec",
     "Plan",
     "PlanFileError",
     "ReelSpec",
+    "RodSpec",
+    "STOCK_FORMS",
     "Settings",
     "ToroidSpec",
     "load_plan",
     "parse_plan",
 ]
 
-#: The coil forms the kit planner can place a coil on (rods, gapped cores and multilayer bobbins: not yet).
-FORMS = ("solenoid", "toroid")
+#: The stock tables of a plan, in the order they are tried, and the coil form each carries.
+STOCK_FORMS = {"former": "solenoid", "toroid": "toroid", "rod": "rod", "gapped": "gapped", "bobbin": "multilayer"}
+
+#: The coil forms the kit planner can place a coil on (a coil's ``forms``; all of them by default).
+FORMS = tuple(STOCK_FORMS.values())
+
+FormName = Literal["solenoid", "toroid", "rod", "gapped", "multilayer"]
 
 #: A tolerance when the plan gives none: ±5 % on the inductance (common practice, no source).
 DEFAULT_TOLERANCE = 0.05
@@ -126,13 +149,94 @@ def _count(value):
     return value
 
 
+#: A reel's length may go beyond the 100 m the general length parser accepts (a reel of fine wire holds
+#: hundreds of metres); the kit reads it itself, from 1 mm to 100 km.
+REEL_RANGE = (1e-3, 1e5)
+_REEL_NUMBER = re.compile(r"^\s*(\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?\s*(.*)$")
+
+
+def _reel_length(value):
+    """A reel's length, SI: the number times the unit, the unit read by parse_quantity from a thousandth of it."""
+    if isinstance(value, float):
+        return value
+    text = _text_of(value, "a length", "250m")
+    match = _REEL_NUMBER.match(text)
+    expected = "a reel length such as 250m (from 1 mm to 100 km)"
+    if match is None or not match.group(3).strip():
+        raise ValueError(f"expected {expected}")
+    try:
+        per_unit = parse_quantity("0.001" + match.group(3).strip(), "m") * 1000.0  # metres in one of the unit
+    except InvalidInputError as error:
+        raise ValueError(f"expected {error.expected}") from None
+    length = float(match.group(1)) * 10.0 ** int(match.group(2) or 0) * per_unit
+    if not (math.isfinite(length) and REEL_RANGE[0] <= length <= REEL_RANGE[1]):
+        raise ValueError(f"expected {expected}")
+    return length
+
+
+def _permeability(value):
+    if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value) or value < 1:
+        raise ValueError("expected a relative permeability of at least 1, as a plain number such as 125")
+    return float(value)
+
+
+def _fraction(value):
+    if isinstance(value, bool) or not isinstance(value, (int, float)) or not 0 < value < 1:
+        raise ValueError("expected a fraction of the turns between 0 and 1, as a plain number such as 0.25")
+    return float(value)
+
+
+def _readings(value):
+    """One ``"L@N"`` reading or a list of them -> ((H, turns), ...)."""
+    items = [value] if isinstance(value, str) else value
+    if not isinstance(items, (list, tuple)) or not items:
+        raise ValueError("expected a reading inductance@turns such as \"12uH@20\", or a list of them")
+    readings = []
+    for item in items:
+        text = _text_of(item, "a reading inductance@turns", "12uH@20")
+        try:
+            readings.append(parse_measurement(text, "measured"))
+        except InvalidInputError as error:
+            raise ValueError(f"expected {error.expected}") from None
+    if len({turns for _, turns in readings}) != len(readings):
+        raise ValueError("expected one reading per turn count (average repeated readings first)")
+    return tuple(readings)
+
+
+def _material_name(name: str) -> str:
+    from coilplan.materials import material
+
+    try:
+        return material(name).name
+    except InvalidInputError as error:
+        raise ValueError(f"expected {error.expected}") from None
+
+
+def _wire_text(text: str) -> str:
+    from coilplan.wire import parse_wire
+
+    try:
+        parse_wire(text, option="wire")
+    except InvalidInputError as error:
+        raise ValueError(f"expected {error.expected}") from None
+    return text
+
+
 Length = _quantity("m", "a length", "12mm")
 LengthOrZero = _quantity("m", "a length", "20mm", allow_zero=True)
+ReelLength = Annotated[float, BeforeValidator(_reel_length)]
 Inductance = _quantity("H", "an inductance", "4.7uH")
 Capacitance = _quantity("F", "a capacitance", "100pF")
 Frequency = _quantity("Hz", "a frequency", "7MHz")
 Current = _quantity("A", "a current", "0.5A", allow_zero=True)
 AlValue = _quantity("H/t2", "an AL value", "20nH")
+Area = _quantity("m2", "an area", "50mm2")
+Permeability = Annotated[float, BeforeValidator(_permeability)]
+Fraction = Annotated[float, BeforeValidator(_fraction)]
+Readings = Annotated[tuple[tuple[float, int], ...], BeforeValidator(_readings)]
+MaterialName = Annotated[str, AfterValidator(_material_name)]
+WireText = Annotated[str, AfterValidator(_wire_text)]
+Grade = Literal["1", "2", "3", "bare"]
 Relative = Annotated[float, BeforeValidator(_relative)]
 Count = Annotated[int, BeforeValidator(_count)]
 Temperature = Annotated[float, BeforeValidator(_temperature)]
@@ -166,7 +270,14 @@ class Settings(_Record):
 
 
 class CoilSpec(_Record):
-    """One coil type wanted: how many, the inductance (or resonance with a capacitor), where it works."""
+    """One coil type wanted: how many, the inductance (or resonance with a capacitor), where it works.
+
+    ``forms`` are the coil forms it may be wound as (all by default). ``tap_fraction`` (of the
+    turns, rounded to the nearest whole turn and kept at least one turn from either end) or
+    ``tap_turns`` (a turn number, counted from the start of the winding) asks for a tap: the
+    card, the JSON and the bill of materials give its turn, and stock whose winding cannot hold
+    it is not used.
+    """
 
     name: str = Field(min_length=1)
     count: Count
@@ -176,7 +287,9 @@ class CoilSpec(_Record):
     tolerance: Relative = DEFAULT_TOLERANCE
     at: Frequency | None = None
     current: Current = 0.0
-    forms: tuple[Literal["solenoid", "toroid"], ...] = FORMS
+    forms: tuple[FormName, ...] = FORMS
+    tap_fraction: Fraction | None = None
+    tap_turns: Count | None = None
 
     @model_validator(mode="after")
     def _one_target(self) -> CoilSpec:
@@ -191,6 +304,8 @@ class CoilSpec(_Record):
             raise ValueError(f"{missing}: expected it with {other}")
         if not self.forms:
             raise ValueError("forms: expected at least one of " + ", ".join(FORMS))
+        if self.tap_fraction is not None and self.tap_turns is not None:
+            raise ValueError("tap_turns: give either tap_fraction or tap_turns, not both")
         return self
 
     @property
@@ -209,6 +324,10 @@ class CoilSpec(_Record):
     def tuned(self) -> bool:
         return self.target_frequency is not None
 
+    @property
+    def tapped(self) -> bool:
+        return self.tap_fraction is not None or self.tap_turns is not None
+
 
 class FormerSpec(_Record):
     """Bare formers (tubes, rods of insulating stock) for single-layer solenoids."""
@@ -226,21 +345,9 @@ class ToroidSpec(_Record):
     od: Length
     id: Length
     height: Length
-    material: str | None = None
+    material: MaterialName | None = None
     al: AlValue | None = None
     count: Count
-
-    @field_validator("material")
-    @classmethod
-    def _known_material(cls, name: str | None) -> str | None:
-        if name is not None:
-            from coilplan.materials import material
-
-            try:
-                return material(name).name
-            except InvalidInputError as error:
-                raise ValueError(f"expected {error.expected}") from None
-        return name
 
     @model_validator(mode="after")
     def _core_known(self) -> ToroidSpec:
@@ -251,23 +358,94 @@ class ToroidSpec(_Record):
         return self
 
 
+class RodSpec(_Record):
+    """Ferrite rods: length, diameter, the material class or a permeability, and optionally a former round them.
+
+    ``measured`` is one or more readings ``"L@N"`` of a test winding on one of these rods,
+    close wound and centred, of ``measured_wire`` (grade ``measured_grade``): they scale the
+    rod model to the material in hand, as ``coilplan rod --measured`` does.
+    """
+
+    name: str | None = None
+    length: Length
+    diameter: Length
+    former: Length | None = None
+    material: MaterialName | None = None
+    mu: Permeability | None = None
+    measured: Readings | None = None
+    measured_wire: WireText | None = None
+    measured_grade: Grade = "1"
+    count: Count
+
+    @model_validator(mode="after")
+    def _core_known(self) -> RodSpec:
+        if self.material is not None and self.mu is not None:
+            raise ValueError("mu: give either material or mu, not both")
+        if self.material is None and self.mu is None:
+            raise ValueError("material: expected a material class (see 'coilplan materials') or a permeability mu")
+        if self.former is not None and self.former < self.diameter:
+            raise ValueError("former: expected a former at least as wide as the rod's diameter")
+        if self.measured is not None and self.measured_wire is None:
+            raise ValueError("measured_wire: expected the wire of the test winding the readings were taken on")
+        if self.measured_wire is not None and self.measured is None:
+            raise ValueError("measured: expected the readings taken with measured_wire")
+        return self
+
+
+class GappedSpec(_Record):
+    """Gapped cores (E, pot or drum cores with a bobbin): effective parameters, gap and material, or an AL value.
+
+    ``ae`` and ``le`` are the core's effective area and path length (IEC 60205, from its data or
+    measured); ``gap`` is the total air gap in the path with ``material`` or ``mu``, or ``al``
+    a known or measured AL value (``material`` may go with ``al`` for the saturation check).
+    ``window_width`` (along the leg) and ``window_depth`` are the winding space of the bobbin.
+    """
+
+    name: str | None = None
+    ae: Area
+    le: Length
+    gap: LengthOrZero | None = None
+    material: MaterialName | None = None
+    mu: Permeability | None = None
+    al: AlValue | None = None
+    window_width: Length
+    window_depth: Length
+    fringing: bool = True
+    count: Count
+
+    @model_validator(mode="after")
+    def _core_known(self) -> GappedSpec:
+        if self.material is not None and self.mu is not None:
+            raise ValueError("mu: give either material or mu, not both")
+        if self.al is not None and self.gap is not None:
+            raise ValueError("gap: give either gap (with material or mu) or al, not both")
+        if self.al is None and self.gap is None:
+            raise ValueError("gap: expected the core's air gap (\"0mm\" for none) with material or mu, or an al value")
+        if self.al is None and self.material is None and self.mu is None:
+            raise ValueError("material: expected a material class (see 'coilplan materials') or a permeability mu "
+                             "to go with the gap")
+        if self.gap is not None and self.gap > 0.5 * self.le:
+            raise ValueError("gap: expected a gap well below the path length le")
+        return self
+
+
+class BobbinSpec(_Record):
+    """Bobbins for multilayer air-core coils: core diameter, width between the cheeks, depth of the window."""
+
+    name: str | None = None
+    diameter: Length
+    width: Length
+    depth: Length
+    style: Literal["layered", "staggered"] = "layered"
+    count: Count
+
+
 class ReelSpec(_Record):
     """A reel of enamelled wire: gauge or bare diameter, enamel grade, length on the reel."""
 
-    wire: str
-    grade: Literal["1", "2", "3", "bare"] = "1"
-    length: Length
-
-    @field_validator("wire")
-    @classmethod
-    def _known_wire(cls, text: str) -> str:
-        from coilplan.wire import parse_wire
-
-        try:
-            parse_wire(text, option="wire")
-        except InvalidInputError as error:
-            raise ValueError(f"expected {error.expected}") from None
-        return text
+    wire: WireText
+    grade: Grade = "1"
+    length: ReelLength
 
 
 class Plan(_Record):
@@ -277,6 +455,9 @@ class Plan(_Record):
     coil: tuple[CoilSpec, ...] = Field(min_length=1)
     former: tuple[FormerSpec, ...] = ()
     toroid: tuple[ToroidSpec, ...] = ()
+    rod: tuple[RodSpec, ...] = ()
+    gapped: tuple[GappedSpec, ...] = ()
+    bobbin: tuple[BobbinSpec, ...] = ()
     reel: tuple[ReelSpec, ...] = Field(min_length=1)
 
     @model_validator(mode="after")

@@ -70,7 +70,9 @@ def test_out_writes_readable_files(plan, tmp_path):
     assert document["result"]["placements"][0]["turns"] == 20
     with (out / "bom.csv").open(encoding="utf-8", newline="") as handle:
         rows = list(csv.DictReader(handle))
-    assert {row["section"] for row in rows} == {"stock", "wire", "coil"}
+    assert {row["section"] for row in rows} == {"stock", "wire", "winding", "coil"}
+    winding = next(row for row in rows if row["section"] == "winding")
+    assert winding["turns"] == "20" and winding["tap_turn"] == ""
     assert "20 turns" in (out / "card-bfo.html").read_text(encoding="utf-8")
 
 
@@ -119,7 +121,9 @@ def test_the_example_plan_runs(tmp_path):
     """The classroom example is complete: every coil placed, exit 0."""
     result = run("kit", EXAMPLE, "--out", tmp_path / "cards")
     assert result.exit_code == 0, result.stderr
-    assert "60 of 60 coils placed" in result.stdout
+    assert "72 of 72 coils placed" in result.stdout
+    cards = sorted(path.name for path in (tmp_path / "cards").iterdir())
+    assert "card-mw-aerial.html" in cards and "bom.csv" in cards
 
 
 def _large_plan() -> str:
@@ -142,3 +146,77 @@ def test_large_plan_shows_progress_on_stderr_only(tmp_path):
     quiet = run("kit", path, "--json")
     assert quiet.exit_code == 0 and quiet.stderr == ""
     assert json.loads(quiet.stdout)["result"]["coils_placed"] == 60
+
+
+MIXED = """
+[[coil]]
+name = "loop"
+count = 1
+target = "40uH"
+tolerance = "10%"
+tap_fraction = 0.1
+forms = ["rod"]
+
+[[coil]]
+name = "choke"
+count = 1
+target = "200uH"
+tolerance = "10%"
+forms = ["gapped"]
+
+[[coil]]
+name = "rfc"
+count = 1
+target = "1mH"
+tolerance = "10%"
+forms = ["multilayer"]
+
+[[rod]]
+name = "ferrite"
+length = "100mm"
+diameter = "10mm"
+material = "nizn-125"
+count = 1
+
+[[gapped]]
+name = "e-core"
+ae = "40mm2"
+le = "45mm"
+gap = "0.3mm"
+mu = 2000
+window_width = "10mm"
+window_depth = "5mm"
+count = 1
+
+[[bobbin]]
+name = "spool"
+diameter = "6mm"
+width = "8mm"
+depth = "6mm"
+count = 1
+
+[[reel]]
+wire = "0.2mm"
+length = "150m"
+"""
+
+
+def test_every_stock_kind_gets_its_card(tmp_path):
+    """A rod, a gapped core and a bobbin: each coil placed, each card written with its drawing; exit 0."""
+    path = tmp_path / "mixed.toml"
+    path.write_text(MIXED, encoding="utf-8")
+    out = tmp_path / "cards"
+    result = run("kit", path, "--out", out)
+    assert result.exit_code == 0, result.stderr
+    assert "3 of 3 coils placed" in result.stdout
+    for name, drawn in (("loop", "rod 100.0 mm long"), ("choke", "centre leg"), ("rfc", "between the cheeks")):
+        card = (out / f"card-{name}.html").read_text(encoding="utf-8")
+        assert "<svg" in card and drawn in card, name
+
+
+def test_malformed_rod_is_one_line_exit_2(tmp_path):
+    """A rod given both a material and a permeability: one line naming the file, the line, the entry and the field."""
+    path = tmp_path / "mixed.toml"
+    path.write_text(MIXED.replace('material = "nizn-125"', 'material = "nizn-125"\nmu = 125'), encoding="utf-8")
+    line = MIXED.replace('material = "nizn-125"', 'material = "nizn-125"\nmu = 125').splitlines().index("mu = 125") + 1
+    one_line_error(run("kit", path), 2, f"{path}, line {line}", "rod[1] 'ferrite'", "mu:")
