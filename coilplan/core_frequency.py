@@ -32,7 +32,16 @@ from coilplan.quantities import format_quantity
 if TYPE_CHECKING:
     from coilplan.materials import Dispersion
 
-__all__ = ["CoreAtFrequency", "CoreSpectrum", "at_frequency", "loss_factor_from_q", "permeability_response"]
+__all__ = [
+    "CoreAtFrequency",
+    "CoreSpectrum",
+    "at_frequency",
+    "class_spectrum",
+    "core_drift",
+    "core_resistance_batch",
+    "loss_factor_from_q",
+    "permeability_response",
+]
 
 # relative step for the numerical derivative of ln g: central differences are good to ~1e-10 here
 _STEP = 1e-5
@@ -208,3 +217,44 @@ def loss_factor_from_q(q_reading: float, frequency: float, inductance: float, co
     if not core > 0 or not dilution > 0:
         return None
     return core / (dilution * mu_low_frequency)
+
+
+def class_spectrum(form, material_name: str | None, mu: float | None) -> CoreSpectrum | None:
+    """The spectrum of a core of the class ``material_name`` whose permeability (as the form uses it) is ``mu``.
+
+    None for no class, air, or a form that cannot say how its inductance follows µ.
+    """
+    if material_name is None or mu is None or not mu > 1.0 or permeability_response(form) is None:
+        return None
+    from coilplan.materials import material_dispersion
+
+    dispersion = material_dispersion(material_name)
+    return None if dispersion is None else CoreSpectrum(mu=float(mu), dispersion=dispersion)
+
+
+def core_resistance_batch(form, spectrum: CoreSpectrum, inductance, frequency):
+    r"""R_core = ωL·tanδ(f)·D for many windings of one form at once (a plan's coils), ohm.
+
+    The dilution D is taken at the core's low-frequency permeability, once for the form:
+    within a class's usual range µ' stays near µi, and D changes with it only to second order.
+    """
+    response = permeability_response(form)
+    at_low = CoreAtFrequency(form, spectrum, 0.0, response)
+    frequency = np.asarray(frequency, dtype=float)
+    tangent = np.asarray(spectrum.loss_tangent(frequency), dtype=float)
+    return 2.0 * math.pi * frequency * np.asarray(inductance, dtype=float) * tangent * at_low.dilution
+
+
+def core_drift(form, spectrum: CoreSpectrum, frequency):
+    """L(f)/L(f_ref) of a form's core at many frequencies (0 Hz gives 1), evaluated once per distinct frequency."""
+    response = permeability_response(form)
+    frequency = np.asarray(frequency, dtype=float)
+    distinct, where = np.unique(frequency, return_inverse=True)
+    mu = np.asarray(spectrum.real_permeability(distinct), dtype=float)
+    try:  # most responses take an array of permeabilities at once
+        ratios = np.asarray(response(mu), dtype=float) / float(response(spectrum.mu))
+        if ratios.shape != mu.shape:
+            raise TypeError("the response is not vectorised")
+    except (TypeError, ValueError):
+        ratios = np.array([float(response(value)) for value in mu]) / float(response(spectrum.mu))
+    return ratios[where].reshape(frequency.shape)

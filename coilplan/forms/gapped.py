@@ -153,7 +153,7 @@ class GappedCore:
             except InfeasibleError:
                 return lambda mu: mu
         factor = self.fringing_factor(gap)
-        return lambda mu: float(gapped_al(self.ae, self.le, gap, mu)) * factor
+        return lambda mu: gapped_al(self.ae, self.le, gap, mu) * factor
 
     # protocol -----------------------------------------------------------------
     def inductance(self, turns):

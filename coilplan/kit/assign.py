@@ -30,9 +30,10 @@ from typing import NamedTuple
 
 import numpy as np
 
+from coilplan.core_frequency import core_drift, core_resistance_batch
 from coilplan.errors import CoilplanWarning, InfeasibleError, InvalidInputError
 from coilplan.kit.optimise import CLOSENESS_STEP, Q_STEPS, Solution, optimise
-from coilplan.kit.stock import StockItem, build_form, plan_wires, stock_items, winding_limit
+from coilplan.kit.stock import StockItem, build_form, core_spectrum, plan_wires, stock_items, winding_limit
 from coilplan.physics.frequency import apparent_inductance_and_resistance, q_factor
 from coilplan.quantities import format_length, format_quantity
 from coilplan.saturation import NEAR_SATURATION
@@ -178,9 +179,12 @@ def _text(reason) -> str:
 # --- evaluation --------------------------------------------------------------------------------------
 
 
-def _apparent(form, turns, frequency):
-    """L at the operating frequency (small-R limit; NaN at or above self-resonance), vectorised."""
-    low = np.asarray(form.inductance(turns), dtype=float)
+def _apparent(form, turns, frequency, drift=1.0):
+    """L at the operating frequency (small-R limit; NaN at or above self-resonance), vectorised.
+
+    ``drift`` is L(f)/L(0) of the core at each frequency (1 for air or an unnamed material).
+    """
+    low = np.asarray(form.inductance(turns), dtype=float) * drift
     capacitance = np.asarray(form.self_capacitance(turns), dtype=float)
     omega2 = (2.0 * np.pi * frequency) ** 2
     apparent, _ = apparent_inductance_and_resistance(frequency, low, 0.0, capacitance)
@@ -215,19 +219,22 @@ def _with_wire(label: str, reason) -> str:
     return f"with {label}: {_text(reason)}"
 
 
-def _solve_on_form(form, targets, frequency, tolerance, current, settings):
+def _solve_on_form(form, targets, frequency, tolerance, current, settings, drift=None):
     """Turns and figures for every coil on one form; (arrays, reasons) with NaN turns where rejected.
 
-    A reason is kept as (function, arguments) and written only when a message needs it (most are never read).
+    ``drift`` (per coil) is the core's L(f)/L(0) at each coil's frequency: the low-frequency target is
+    divided by it. A reason is kept as (function, arguments) and written only when a message needs it
+    (most are never read).
     """
     count = targets.size
+    drift = np.ones(count) if drift is None else np.asarray(drift, dtype=float)
     reasons: dict[int, object] = {}
     turns = np.full(count, np.nan)
     top = winding_limit(form)
     if top < 1:
         return turns, dict.fromkeys(range(count), f"not one turn fits: {form.limit_reason(1.0)}"), None
     smallest, largest = (float(v) for v in form.inductance(np.array([1.0, float(top)])))
-    low_target = targets.copy()
+    low_target = targets / drift
     exact = np.full(count, np.nan)
 
     def solve(selected):
@@ -241,7 +248,7 @@ def _solve_on_form(form, targets, frequency, tolerance, current, settings):
     if tuned.any() and hasattr(form, "self_capacitance"):  # one fixed-point correction for the self-capacitance
         capacitance = np.asarray(form.self_capacitance(exact[tuned]), dtype=float)
         omega2 = (2.0 * np.pi * frequency[tuned]) ** 2
-        low_target[tuned] = targets[tuned] / (1.0 + omega2 * targets[tuned] * capacitance)
+        low_target[tuned] = targets[tuned] / (1.0 + omega2 * targets[tuned] * capacitance) / drift[tuned]
         solve(tuned)
     for index in np.flatnonzero(low_target < smallest).tolist():
         reasons[index] = (_single_turn_too_much, smallest, float(targets[index]))
@@ -256,7 +263,7 @@ def _solve_on_form(form, targets, frequency, tolerance, current, settings):
     # the whole numbers round the solution (two more either side absorb what the one correction leaves)
     base = np.floor(exact[where] + 1e-9)
     trial = np.clip(base[None, :] + np.arange(-1.0, 3.0)[:, None], 1.0, float(top))
-    trial_apparent = np.vstack([_apparent(form, row, f)[0] for row in trial])
+    trial_apparent = np.vstack([_apparent(form, row, f, drift[where])[0] for row in trial])
     errors = np.nan_to_num(np.abs(trial_apparent - wanted), nan=np.inf)
     best_row = np.argmin(errors, axis=0)
     columns = np.arange(where.size)
@@ -359,8 +366,10 @@ def _evaluate(plan, progress) -> Evaluation:
                     reasons.setdefault((int(c), s), f"{wire.label} wire does not suit it: expected {error.expected}")
                 continue
             forms[(s, w)] = form
+            spectrum = core_spectrum(item, form)
+            drift = None if spectrum is None else core_drift(form, spectrum, frequency[chosen])
             turns, why, extra = _solve_on_form(form, targets[chosen], frequency[chosen], tolerance[chosen],
-                                               current[chosen], settings)
+                                               current[chosen], settings, drift)
             if extra is not None:
                 good = ~np.isin(extra["where"], np.fromiter(why, dtype=np.int64, count=len(why)))
                 taps, tap_why = _taps(coils, tapped, chosen[extra["where"]], turns[extra["where"]])
@@ -380,7 +389,11 @@ def _evaluate(plan, progress) -> Evaluation:
             safe_f = np.where(f > 0, f, 1.0)
             with np.errstate(divide="ignore", invalid="ignore"):
                 resistance = np.asarray(form.ac_resistance(n, safe_f, settings.temperature_C))
-                q = np.where(f > 0, q_factor(form.inductance(n), resistance, safe_f), np.nan)
+                own = np.asarray(form.inductance(n), dtype=float)
+                if spectrum is not None:  # the core's µ' and its own loss at each coil's frequency
+                    own = own * drift[local]
+                    resistance = resistance + core_resistance_batch(form, spectrum, own, safe_f)
+                q = np.where(f > 0, q_factor(own, resistance, safe_f), np.nan)
             lows = np.asarray(form.inductance(n), dtype=float)
             q_term = np.where(np.isfinite(q), 1.0 / (1.0 + q), 0.0)
             found.append((chosen[local], np.full(local.size, w), n, lows, extra["apparent"][good], length,

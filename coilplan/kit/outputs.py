@@ -20,9 +20,10 @@ from coilplan.cautions import (
     salvaged_mains_caution,
     tuned_circuit_cautions,
 )
+from coilplan.core_frequency import at_frequency
 from coilplan.kit.assign import KitResult, Placement, captured, wire_key
 from coilplan.kit.cards import card_files, winding_card
-from coilplan.kit.stock import describe
+from coilplan.kit.stock import core_spectrum, describe
 from coilplan.quantities import format_length, format_quantity
 from coilplan.report.json_report import json_document
 from coilplan.report.text import aligned_rows, bullet_lines
@@ -110,6 +111,8 @@ def placement_fields(result: KitResult, placement: Placement) -> dict:
     fields.update(meter_frequency_Hz=meter, meter_inductance_H=expected,
                   accept_low_H=expected * coil.target_inductance * (1 - coil.tolerance) / operating,
                   accept_high_H=expected * coil.target_inductance * (1 + coil.tolerance) / operating)
+    if frequency:  # the core's permeability and loss there, when its class is named
+        form = at_frequency(form, core_spectrum(item, form), frequency)
     extra, warnings_ = captured(frequency_fields, form, turns, frequency, settings.temperature_C)
     if hasattr(form, "validity_warnings"):  # the model's own range, for the turns chosen
         warnings_ += [text for text in captured(form.validity_warnings, turns)[1] if text not in warnings_]

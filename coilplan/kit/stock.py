@@ -182,6 +182,18 @@ def build_form(item: StockItem, wire: Wire, settings):
                   mu_r=None if spec.al is not None else mu_r, saturation_flux_density=bsat, lead=settings.lead)
 
 
+def core_spectrum(item: StockItem, form):
+    """The frequency behaviour of the item's core when its material class is named, else None (see core_frequency)."""
+    name = getattr(item.spec, "material", None)
+    if name is None or item.kind not in ("toroid", "gapped", "rod"):
+        return None
+    from coilplan.core_frequency import class_spectrum
+
+    mu = {"toroid": lambda: form.permeability(), "gapped": lambda: form.mu_r,
+          "rod": lambda: form.mu_initial}[item.kind]()
+    return class_spectrum(form, name, mu)
+
+
 def _core(spec) -> str:
     if getattr(spec, "al", None) is not None:
         return f"AL {format_quantity(spec.al, 'H')} per turn²" + (f", {spec.material}" if spec.material else "")
