@@ -274,8 +274,13 @@ def _card_rows(p: dict) -> list[tuple[str, str]]:
                           f"{_henry(p['accept_low_H'])} to {_henry(p['accept_high_H'])}"))
     rows.append(("target", f"{_henry(p['target_H'])} ±{p['tolerance']:.1%}"))
     if p.get("frequency_Hz"):
+        losses = f"R {format_quantity(p['ac_resistance_ohm'], 'ohm', 3)}"
+        if p.get("core_loss_resistance_ohm") is not None:
+            losses = (f"R {format_quantity(p['ac_resistance_ohm'], 'ohm', 3)} copper + "
+                      f"{format_quantity(p['core_loss_resistance_ohm'], 'ohm', 3)} core (typical of "
+                      f"{p.get('material')}, rough)")
         rows.append(("at", f"{format_quantity(p['frequency_Hz'], 'Hz')}: L {_henry(p['apparent_inductance_H'])}, "
-                           f"R {format_quantity(p['ac_resistance_ohm'], 'ohm', 3)}, Q {p['q']:.0f}"))
+                           f"{losses}, Q {p['q']:.0f}"))
     if p.get("srf_Hz") and math.isfinite(p["srf_Hz"]):
         rows.append(("self-resonance", f"{format_quantity(p['srf_Hz'], 'Hz', 3)} (self-capacitance "
                                        f"{format_quantity(p['self_capacitance_F'], 'F', 2)}, estimated)"))
