@@ -1,4 +1,4 @@
-"""Every command under random option values: exit 0, 1 or 2, never a traceback or an internal error.
+"""Every command under random option values, and plan files edited by hand: exit 0, 1 or 2, never a traceback.
 
 Values are drawn from valid, borderline and malformed text: right and wrong units, odd prefix case,
 micro signs, commas, exponents, huge and tiny numbers, empty strings and unicode.
@@ -83,3 +83,71 @@ def test_random_options_never_crash(data):
     if result.exit_code == 2:  # a usage error names the option (or the argument) it is about
         assert any(name in result.stderr for name in (*options, *COMMANDS[command], "MATERIAL", "GAUGE")), (
             arguments, result.stderr)
+
+
+TRIM_OPTIONS = ["--target", "--tolerance", "--measured", "--at", "--meter-freq", "--self-capacitance",
+                "--turn-length", "--wire", "--offset"]
+
+
+@settings(max_examples=int(os.environ.get("COILPLAN_FUZZ_EXAMPLES", "600")) // 6, deadline=None)
+@given(data=st.data())
+def test_random_trim_logs_never_crash(data):
+    """`trim start` then `trim add` with random values: exit 0, 1 or 2, one line on failure, a log only on success."""
+    options = data.draw(st.lists(st.sampled_from(TRIM_OPTIONS), min_size=1, max_size=3, unique=True))
+    arguments = ["trim", "start", "log.json", "--target", "100uH"]
+    for option in options:
+        if option == "--offset":
+            arguments.append(option)
+        else:
+            arguments += [option, data.draw(value())]
+    runner = CliRunner()
+    with runner.isolated_filesystem():
+        result = runner.invoke(main, arguments)
+        assert result.exit_code in (0, 1, 2), (arguments, result.output)
+        assert "Traceback" not in result.output and "internal error" not in result.output, (arguments, result.output)
+        if result.exit_code:
+            assert result.stderr.count("\n") == 1, (arguments, result.stderr)
+            assert not os.path.exists("log.json"), arguments  # a refused start writes nothing
+            return
+        added = runner.invoke(main, ["trim", "add", "log.json", "--measured", data.draw(value())])
+        assert added.exit_code in (0, 1, 2), added.output
+        assert "Traceback" not in added.output and "internal error" not in added.output, added.output
+
+
+PLAN_FIELDS = {
+    "coil": {"name": '"c1"', "count": "2", "target": '"10uH"', "tolerance": '"5%"', "at": '"3.5MHz"',
+             "current": '"10mA"'},
+    "toroid": {"name": '"ring"', "od": '"12.7mm"', "id": '"7.7mm"', "height": '"4.8mm"', "material": '"nizn-125"',
+               "count": "3"},
+    "former": {"name": '"tube"', "diameter": '"10mm"', "length": '"30mm"', "count": "2"},
+    "reel": {"wire": '"0.3mm"', "length": '"20m"'},
+}
+
+
+def _plan(fields: dict) -> str:
+    return "\n".join(f"[[{table}]]\n" + "\n".join(f"{key} = {text}" for key, text in entries.items())
+                     for table, entries in fields.items())
+
+
+@settings(max_examples=int(os.environ.get("COILPLAN_FUZZ_EXAMPLES", "600")) // 6, deadline=None)
+@given(data=st.data())
+def test_random_plan_files_never_crash(data):
+    """A plan file edited by hand: one field given a random value (or dropped). Exit 0, 1 or 2; on a usage error
+    one line naming the file and the field."""
+    table = data.draw(st.sampled_from(sorted(PLAN_FIELDS)))
+    key = data.draw(st.sampled_from(sorted(PLAN_FIELDS[table])))
+    fields = {name: dict(entries) for name, entries in PLAN_FIELDS.items()}
+    if data.draw(st.booleans()):
+        del fields[table][key]
+    else:
+        raw = data.draw(value())
+        fields[table][key] = data.draw(st.sampled_from([f'"{raw}"', raw or '""', f"'{raw}'"]))
+    runner = CliRunner()
+    with runner.isolated_filesystem():
+        with open("plan.toml", "w", encoding="utf-8") as handle:
+            handle.write(_plan(fields))
+        result = runner.invoke(main, ["kit", "plan.toml"])
+    assert result.exit_code in (0, 1, 2), result.output
+    assert "Traceback" not in result.output and "internal error" not in result.output, (fields, result.output)
+    if result.exit_code == 2:
+        assert result.stderr.count("\n") == 1 and "plan.toml" in result.stderr, (fields, result.stderr)
