@@ -14,6 +14,32 @@ silently change a value by orders of magnitude:
   prefix is not (``m`` milli, ``M`` mega).
 
 Lengths also take inches (``in``, ``inch``, ``"``) and mils (``mil``, ``thou``).
+
+A value is accepted only within a range no bench coil, core, capacitor or meter
+leaves (:data:`ACCEPTED_RANGES`); ``1e300H`` is a slip, not a coil, and refusing it
+at the door keeps every formula downstream in the range of a float. The bounds are
+inclusive and apply to the magnitude (a negative offset, where allowed, too):
+
+===========  ========================  ===========  ===========  ==========================================
+unit         what                      lowest       highest      why these bounds
+===========  ========================  ===========  ===========  ==========================================
+``H``        inductance                1 fH         100 kH       below a straight millimetre of wire; the
+                                                                 top of a bench LCR meter's range
+``F``        capacitance               1 fF         1 F          a probe's stray; a large electrolytic
+``Hz``       frequency                 1 mHz        100 GHz      slow mains-transformer tests; microwave
+``m``        length                    1 µm         100 m        a thin enamel build; a long antenna wire
+``m2``       area                      1 µm²        1 m²         a thin wire's section; the largest cores
+``ohm``      resistance                1 µΩ         100 MΩ       a thick copper bar; an insulation reading
+``A``        current                   1 nA         10 kA        a meter's test current; a welder's lead
+``V``        voltage                   1 µV         100 kV       a receiver's input; a large transmitter's
+                                                                 tank
+``T``        flux density              1 µT         10 T         the Earth's field /50; above any core
+                                                                 material's saturation (about 2.5 T)
+``H/t2``     AL value                  1 fH         10 H         an air-cored ring; far above any core
+                                                                 (about 100 µH per turn²)
+===========  ========================  ===========  ===========  ==========================================
+
+(the figures are common practice, no source: a bench tool's outer limits, not a material's).
 """
 
 from __future__ import annotations
@@ -25,6 +51,7 @@ from decimal import Decimal
 from coilplan.errors import InvalidInputError
 
 __all__ = [
+    "ACCEPTED_RANGES",
     "UNIT_NAMES",
     "format_length",
     "format_quantity",
@@ -64,6 +91,24 @@ _EXAMPLES: dict[str, str] = {
     "T": "0.3T",
     "H/t2": "420nH",
 }
+
+#: Inclusive (lowest, highest) magnitude accepted for each unit, SI, and the range in words
+#: (the table in the module docstring says why).
+ACCEPTED_RANGES: dict[str, tuple[float, float, str]] = {
+    "H": (1e-15, 1e5, "from 1 fH to 100 kH"),
+    "F": (1e-15, 1.0, "from 1 fF to 1 F"),
+    "Hz": (1e-3, 1e11, "from 1 mHz to 100 GHz"),
+    "m": (1e-6, 100.0, "from 1 µm to 100 m"),
+    "m2": (1e-12, 1.0, "from 1 µm² to 1 m²"),
+    "ohm": (1e-6, 1e8, "from 1 µΩ to 100 MΩ"),
+    "A": (1e-9, 1e4, "from 1 nA to 10 kA"),
+    "V": (1e-6, 1e5, "from 1 µV to 100 kV"),
+    "T": (1e-6, 10.0, "from 1 µT to 10 T"),
+    "H/t2": (1e-15, 10.0, "from 1 fH to 10 H per turn²"),
+}
+
+#: Relative slack on the bounds, so that a bound typed another way ("0.001mm") still reads.
+_RANGE_SLACK = 1e-12
 
 _PREFIXES: dict[str, Decimal] = {
     "f": Decimal("1e-15"),
@@ -166,7 +211,8 @@ def parse_quantity(text: str, unit: str, option: str = "value", *,
     option : str
         The option name, for the error message.
     allow_zero, allow_negative : bool
-        Whether zero or negative values are accepted (default: only > 0).
+        Whether zero or negative values are accepted (default: only > 0). Where zero is
+        accepted it may be typed without a unit (``"0"``): zero is zero in any unit.
 
     Returns
     -------
@@ -177,7 +223,8 @@ def parse_quantity(text: str, unit: str, option: str = "value", *,
     ------
     InvalidInputError
         Wrong or missing unit, decimal comma, not a number, not finite,
-        zero or negative where that is not allowed.
+        zero or negative where that is not allowed, or a magnitude outside
+        :data:`ACCEPTED_RANGES` (the message gives the range).
 
     Examples
     --------
@@ -193,6 +240,8 @@ def parse_quantity(text: str, unit: str, option: str = "value", *,
     if unit not in UNIT_NAMES:
         raise ValueError(f"unit must be one of {sorted(UNIT_NAMES)}; got {unit!r}")
     number, suffix = _split_number(str(text), option, unit)
+    if allow_zero and number == 0 and suffix == "":
+        return 0.0  # a bare zero: the same in every unit
     scale = _suffix_scale(suffix, unit)
     if scale is None:
         if suffix == "":
@@ -210,6 +259,9 @@ def parse_quantity(text: str, unit: str, option: str = "value", *,
         raise _fail(option, unit, text, "it must not be negative")
     if value == 0 and not allow_zero:
         raise _fail(option, unit, text, "it must be above zero")
+    lowest, highest, words = ACCEPTED_RANGES[unit]
+    if value != 0 and not lowest * (1 - _RANGE_SLACK) <= abs(value) <= highest * (1 + _RANGE_SLACK):
+        raise _fail(option, unit, text, words)
     return value
 
 
@@ -399,7 +451,9 @@ def format_quantity(value: float, unit: str, digits: int = 4) -> str:
     """Render an SI value with an SI prefix, e.g. ``format_quantity(1.02e-5, "H")``.
 
     ``digits`` is the number of significant digits. The Greek mu stands for micro.
-    Non-finite values render as ``"n/a"``.
+    Non-finite values render as ``"n/a"``. Beyond the prefixes f to G (a mantissa that
+    would fall below 0.001 f or reach 1,000,000 G) the value is written in scientific
+    notation, so that no figure runs to a long string of digits.
 
     Examples
     --------
@@ -409,6 +463,8 @@ def format_quantity(value: float, unit: str, digits: int = 4) -> str:
     '1.24 MHz'
     >>> format_quantity(0.0, "ohm")
     '0 Ω'
+    >>> format_quantity(2.5e-19, "F"), format_quantity(-3e15, "Hz")
+    ('2.500e-19 F', '-3.000e+15 Hz')
     """
     symbol = "Ω" if unit == "ohm" else unit
     if not math.isfinite(value):
@@ -417,19 +473,21 @@ def format_quantity(value: float, unit: str, digits: int = 4) -> str:
         return f"0 {symbol}"
     magnitude = abs(value)
     # the largest prefix that leaves a mantissa >= 1 after rounding to `digits`, so that
-    # 999.96 µ shows as 1.000 m rather than 1000 µ; below the smallest prefix, keep it
+    # 999.96 µ shows as 1.000 m rather than 1000 µ
     rounded, prefix = 0.0, _FORMAT_PREFIXES[-1][1]
     for scale, symbol_prefix in _FORMAT_PREFIXES:
         rounded, prefix = float(f"{magnitude / scale:.{digits}g}"), symbol_prefix
         if rounded >= 1:
             break
+    if rounded < 1e-3 or rounded >= 1e6:  # far beyond the prefixes: scientific notation
+        return f"{value:.{max(digits - 1, 0)}e} {symbol}"
     decimals = max(digits - 1 - math.floor(math.log10(rounded)), 0) if rounded else 0
     sign = "-" if value < 0 else ""
     return f"{sign}{rounded:.{decimals}f} {prefix}{symbol}"
 
 
 def format_length(value: float, digits: int = 4) -> str:
-    """Render a length in millimetres (below 1 m) or metres.
+    """Render a length in millimetres (below 1 m) or metres; scientific below 1 nm or from 1000 km.
 
     Examples
     --------
@@ -437,9 +495,13 @@ def format_length(value: float, digits: int = 4) -> str:
     '12.50 mm'
     >>> format_length(2.5)
     '2.500 m'
+    >>> format_length(1e300)
+    '1.000e+300 m'
     """
     if not math.isfinite(value):
         return "n/a"
+    if value != 0 and not 1e-9 <= abs(value) < 1e6:
+        return f"{value:.{max(digits - 1, 0)}e} m"
     if abs(value) >= 1:
         decimals = max(digits - 1 - math.floor(math.log10(abs(value))), 0)
         return f"{value:.{decimals}f} m"

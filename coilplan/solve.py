@@ -2,8 +2,12 @@
 
 It works only through the form protocol (:class:`coilplan.forms.CoilForm`):
 ``inductance(turns)`` vectorised over float turns, ``min_turns()``,
-``max_turns()`` and ``limit_reason(turns)``. So a new form needs no change
-here.
+``max_turns()`` and ``limit_reason(turns)``, and, where nothing physical
+limits the turns (``max_turns()`` is infinite), an optional
+``search_limit()``: the most turns worth searching on that form and why, in
+words (a solenoid's winding as long as the longest length the tool reads,
+say). Without either, the search stops at :data:`SEARCH_LIMIT` turns. So a
+new form needs no change here.
 
 The continuous root of L(N) = target is found in logarithmic variables,
 f(u) = ln L(e^u) − ln target, which is nearly straight (L grows roughly as
@@ -23,9 +27,11 @@ import numpy as np
 from coilplan.errors import InfeasibleError, SolverError
 from coilplan.quantities import format_quantity
 
-__all__ = ["TurnsSolution", "solve_turns"]
+__all__ = ["SEARCH_LIMIT", "TurnsSolution", "search_turns", "solve_turns"]
 
-_UNBOUNDED_TURNS = 1e7  # search limit when the form sets none (no coil has more turns)
+#: Turns beyond which the solver does not search when the form sets no limit of its own: ten
+#: million, more than any coil wound by hand or on a bench machine (common practice, no source).
+SEARCH_LIMIT = 1e7
 
 
 @dataclass(frozen=True)
@@ -72,23 +78,37 @@ def _log_inductance(form, turns: np.ndarray) -> np.ndarray:
         return np.log(np.asarray(form.inductance(turns), dtype=float))
 
 
-def _upper_bracket(form, log_target: np.ndarray, low: float) -> tuple[float, bool]:
+def search_turns(form) -> tuple[float, str | None]:
+    """(most whole turns searched, why in words or None): ``max_turns()`` (its words are the form's
+    ``limit_reason``), else the form's ``search_limit()``, else :data:`SEARCH_LIMIT`."""
+    limit = float(form.max_turns())
+    if math.isfinite(limit):
+        return float(math.floor(limit + 1e-9)), None
+    own = getattr(form, "search_limit", None)
+    if callable(own):
+        turns, reason = own()
+        if float(turns) <= SEARCH_LIMIT:
+            return float(math.floor(float(turns) + 1e-9)), reason
+    return SEARCH_LIMIT, (f"{SEARCH_LIMIT:.0f} turns, beyond which this solver does not search (more than any "
+                          f"coil wound by hand or machine)")
+
+
+def _upper_bracket(form, log_target: np.ndarray, low: float) -> tuple[float, str | None]:
     """The top of the bracket: doubling from a few turns until L reaches the largest target.
 
-    It stops at the form's own limit (returning limited=True) or at the search limit, so
-    the solver never evaluates a costly model far beyond the answer.
+    It stops at the form's own limit or at the search limit (with the words for that limit,
+    :func:`search_turns`), so the solver never evaluates a costly model far beyond the answer.
     """
-    limit = float(form.max_turns())
-    limit = float(math.floor(limit + 1e-9)) if math.isfinite(limit) else _UNBOUNDED_TURNS  # whole turns
+    limit, reason = search_turns(form)
     needed = float(np.max(log_target))
     high = min(max(2.0 * low, 2.0), limit)
     while high < limit and _log_inductance(form, np.array([high]))[0] < needed:
         high = min(2.0 * high, limit)
-    return high, high >= limit and math.isfinite(float(form.max_turns()))
+    return high, reason
 
 
 def _check_bracket(form, targets: np.ndarray, low: float, high: float,
-                   smallest: float, largest: float, limited: bool) -> None:
+                   smallest: float, largest: float, reason: str | None) -> None:
     """Raise InfeasibleError, in the user's terms, when a target lies outside [L(low), L(high)]."""
     slack = 1e-12  # a target equal to a limit, up to rounding, is reachable
     if np.any(targets < smallest * (1 - slack)):
@@ -99,12 +119,25 @@ def _check_bracket(form, targets: np.ndarray, low: float, high: float,
             option="--target", achievable=(smallest, largest))
     if np.any(targets > largest * (1 + slack)):
         target = float(np.max(targets))
-        reason = (form.limit_reason(high) if limited
-                  else f"{high:.0f} turns, beyond which this solver does not search")
+        reason = form.limit_reason(high) if reason is None else reason
         raise InfeasibleError(
             f"target {format_quantity(target, 'H')} is above the {format_quantity(largest, 'H')} "
             f"this coil can reach: {reason}",
             option="--target", achievable=(smallest, largest))
+
+
+def _refuse_beyond_any_coil(form, targets: np.ndarray) -> None:
+    """A target of zero or less is below one turn, an infinite one above any winding: say so in those terms.
+
+    (A caller's band around a target, target·(1 ± u) with u >= 1, reaches them; they are
+    not defects.)
+    """
+    if np.any(targets <= 0):
+        raise InfeasibleError(f"target {format_quantity(float(np.min(targets)), 'H')} is not above zero: even "
+                              f"{form.limit_reason(float(form.min_turns()), lowest=True)} has more",
+                              option="--target")
+    if np.any(np.isinf(targets)):
+        raise InfeasibleError("an infinite target inductance is above what any winding reaches", option="--target")
 
 
 def solve_turns(form, target, *, rtol: float = 1e-12, max_iterations: int = 100) -> TurnsSolution:
@@ -130,8 +163,11 @@ def solve_turns(form, target, *, rtol: float = 1e-12, max_iterations: int = 100)
     Raises
     ------
     InfeasibleError
-        A target below the inductance of the fewest turns the form allows, or
-        above the most that fit; the message names the limit in the user's terms.
+        A target below the inductance of the fewest turns the form allows (zero
+        or less included), or above the most that fit (infinity included); the
+        message names the limit in the user's terms.
+    ValueError
+        A target that is not a number (NaN).
     SolverError
         The iteration did not converge (a defect, not a user error).
 
@@ -141,18 +177,18 @@ def solve_turns(form, target, *, rtol: float = 1e-12, max_iterations: int = 100)
     for every form (more turns of the same winding always add flux linkage).
     """
     targets = np.atleast_1d(np.asarray(target, dtype=float))
-    if not np.all(np.isfinite(targets) & (targets > 0)):
-        raise ValueError("target inductances must be finite and > 0")
+    if np.any(np.isnan(targets)):
+        raise ValueError("target inductances must be numbers")
+    _refuse_beyond_any_coil(form, targets)
     log_target = np.log(targets)
     low_turns = float(form.min_turns())
-    high_turns, limited = _upper_bracket(form, log_target, low_turns)
+    high_turns, reason = _upper_bracket(form, log_target, low_turns)
     if high_turns < low_turns:
         raise InfeasibleError(f"not even {form.limit_reason(low_turns, lowest=True)} fits: "
                               f"{form.limit_reason(high_turns)}", option="--target")
     log_low, log_high = _log_inductance(form, np.array([low_turns, high_turns]))
     evaluations = 1
-    _check_bracket(form, targets, low_turns, high_turns, math.exp(log_low), math.exp(log_high),
-                   limited)
+    _check_bracket(form, targets, low_turns, high_turns, math.exp(log_low), math.exp(log_high), reason)
     log_target = np.clip(log_target, log_low, log_high)
     f_low = log_low - log_target
     f_high = log_high - log_target

@@ -49,6 +49,8 @@ __all__ = [
     "DEFAULT_FREQUENCY_TOLERANCE",
     "DEFAULT_STRAY_F",
     "HIGH_RF_VOLTAGE_V",
+    "MAX_TANK_Q",
+    "TANK_POWER_RANGE",
     "BandPlan",
     "ResonanceFit",
     "TankSolution",
@@ -70,6 +72,13 @@ DEFAULT_FREQUENCY_TOLERANCE = 0.005
 #: From this RMS voltage across a tank on, the text cautions about RF voltage: the 50 V AC upper
 #: limit of extra-low voltage (IEC 61140, from memory); RF burns are a hazard in their own right.
 HIGH_RF_VOLTAGE_V = 50.0
+
+#: Largest loaded Q taken for a tank: no coil-and-capacitor tank reaches 100,000 (a silver-plated
+#: cavity reaches about 10,000; common practice, no source), and the voltage √(P·Q·X) must stay a figure.
+MAX_TANK_Q = 1e5
+#: Powers taken for a driven tank, W: a microwatt (a receiver's tank) to 100 kW (a broadcast
+#: transmitter's); a bench tool's outer limits (common practice, no source).
+TANK_POWER_RANGE = (1e-6, 1e5)
 
 _RANGE_EXAMPLES = {"Hz": "530kHz:1700kHz", "F": "10pF:365pF"}
 _ONE_POINT = "two resonances or more: one gives only L·(C + C0)"
@@ -708,8 +717,14 @@ def drive_fields(*, reactance: float, power: float | None = None, q: float | Non
     fields: dict = {}
     if power is not None:
         fields["power_W"] = _positive(power, "--power", "W")
+        low, high = TANK_POWER_RANGE
+        if not low <= fields["power_W"] <= high:
+            raise InvalidInputError("--power", f"a power from {_f(low, 'W', 1)} to {_f(high, 'W', 1)}",
+                                    _f(fields["power_W"], "W"))
     if q is not None:
         fields["q"] = _positive(q, "--q", "")
+        if fields["q"] > MAX_TANK_Q:
+            raise InvalidInputError("--q", f"a loaded Q above 0 and at most {MAX_TANK_Q:.0f}", f"{fields['q']:.6g}")
         fields["parallel_resistance_ohm"] = fields["q"] * float(reactance)
     if power is not None and q is not None:
         volts = float(rs.tank_voltage_rms(power, q, reactance))

@@ -127,6 +127,17 @@ def _check_positive(value: float, option: str, expected: str) -> float:
     return float(value)
 
 
+def _refuse_under_one_turn(high: float, turns: float, why: str, advice: str) -> None:
+    """Raise InfeasibleError when even the top of the interval rounds to no turn at all.
+
+    A winding has at least one turn: readings whose whole interval lies below half a turn
+    (shown as "0 to 0") say that a reading, or the premise of the method, is wrong.
+    """
+    if high < 0.5:
+        raise InfeasibleError(f"{why} give {turns:.2g} turns ({high:.2g} at most with the stated tolerances), "
+                              f"less than the one turn any winding has: {advice}")
+
+
 @dataclass(frozen=True)
 class TurnEstimate:
     """The turn count by one method, with its worst-case interval.
@@ -313,7 +324,8 @@ def count_from_added_turns(before: float, after: float, added: int,
         A reading not above zero, ``added`` zero, a tolerance outside (0, 50 %).
     InfeasibleError
         L₂ ≤ L₁ after adding turns (or L₂ ≥ L₁ after removing them): the turns went
-        on in the opposite sense, or a reading is wrong.
+        on in the opposite sense, or a reading is wrong; or readings whose whole
+        interval lies below one turn (a change far too large for the turns added).
 
     Notes
     -----
@@ -355,6 +367,11 @@ def count_from_added_turns(before: float, after: float, added: int,
     root = math.sqrt(ratio)
     turns = added / (root - 1.0)
     low, high = _added_interval(ratio, added, tolerance)
+    _refuse_under_one_turn(
+        high, turns, f"{_henry(before)} before and {_henry(after)} after {count} turn{plural} "
+        f"{'added' if added > 0 else 'removed'}",
+        "on a closed core (L = AL·N²) that change is far too large for so few turns; a reading is wrong (check "
+        "the meter's range and the units), the turns went onto a different core, or the core is not closed")
     estimate_range = _span(low, high)
     if added > 0:
         words = (f"{count} turn{plural} added raised {_henry(before)} to {_henry(after)}: (N+{count})/N = "
@@ -427,6 +444,9 @@ def count_from_test_winding(test_inductance: float, test_turns: int, unknown_ind
     ------
     InvalidInputError
         A reading not above zero, fewer than one test turn, a tolerance outside (0, 50 %).
+    InfeasibleError
+        Readings whose whole interval lies below one turn (the unknown winding reads less
+        than one turn of the test winding would).
 
     Examples
     --------
@@ -444,6 +464,12 @@ def count_from_test_winding(test_inductance: float, test_turns: int, unknown_ind
     turns = test_turns * root
     q = 1.0 + _root_shift(tolerance)
     low, high = turns / q, turns * q
+    _refuse_under_one_turn(
+        high, turns, f"the {test_turns}-turn test winding at {_henry(test_inductance)} and the unknown winding at "
+        f"{_henry(unknown_inductance)}",
+        f"the unknown winding reads less than one turn of the test winding would ("
+        f"{_henry(test_inductance / test_turns**2)}); a reading is wrong, or the windings are not on the same "
+        "closed core")
     words = (f"the {test_turns}-turn test winding read {_henry(test_inductance)} and the unknown winding "
              f"{_henry(unknown_inductance)}: N = {test_turns}·√({_henry(unknown_inductance)}/"
              f"{_henry(test_inductance)}) = {test_turns}·{root:.6g} = {turns:.1f}, about {_whole(turns)} turns "
@@ -542,6 +568,8 @@ def count_from_resistance(resistance: float, wire: Wire, turn_length: float, *, 
     ------
     InvalidInputError
         A value not above zero, leads of at least the reading, a tolerance outside (0, 50 %).
+    InfeasibleError
+        A reading below the resistance of one turn of the wire, even at the ends of the tolerances.
 
     Examples
     --------
@@ -569,6 +597,12 @@ def count_from_resistance(resistance: float, wire: Wire, turn_length: float, *, 
     high = (resistance / (1 - t_r) - lead_resistance) * (1 + t_d) ** 2 / (per_metre * turn_length * (1 - t_l))
     low = max(resistance / (1 + t_r) - lead_resistance, 0.0) * (1 - t_d) ** 2 / (
         per_metre * turn_length * (1 + t_l))
+    _refuse_under_one_turn(
+        high, turns, f"{format_quantity(net, 'ohm')} of {wire.label} copper ({format_length(copper_length)} of "
+        f"wire) at {format_length(turn_length)} a turn",
+        f"the reading is below the resistance of a single turn of this wire "
+        f"({format_quantity(per_metre * turn_length, 'ohm')}); check the reading (null the test leads), the wire "
+        "diameter and the turn length")
     reading = format_quantity(resistance, "ohm")
     if lead_resistance > 0:
         reading += f" − {format_quantity(lead_resistance, 'ohm')} leads = {format_quantity(net, 'ohm')}"

@@ -8,7 +8,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from coilplan.errors import InvalidInputError, OutsideValidityWarning
+from coilplan.errors import InfeasibleError, InvalidInputError, OutsideValidityWarning
 from coilplan.forms import FlatSpiral, MultilayerCoil
 from coilplan.physics.multilayer import multilayer_filament_inductance
 from coilplan.solve import solve_turns
@@ -91,3 +91,79 @@ def test_frequency_model_is_finite():
         for f, n in ((form, 1), (form, 300), (spiral, 20)):
             assert float(f.self_capacitance(n)) > 0
             assert float(f.ac_resistance(n, 2e6)) > float(f.resistance(n))
+
+
+# --- limits that hold for every method, and the cost of a whole-turn answer (issue 8) -------------------------
+
+
+@pytest.mark.parametrize("method", ["filament", "wheeler-1928"])
+def test_multilayer_limit_holds_for_both_methods(method):
+    """Every answer gives the turn-by-turn sum (Wheeler's figure beside it), so both methods stop where the
+    sum does: 200 layers of 24 turns here (8 mm / 0.3265 mm pitch); an unreachable target is refused there."""
+    form = MultilayerCoil(former_diameter=0.01, width=0.008, wire=wire(), method=method)
+    assert form.max_turns() == 200 * 24
+    with pytest.raises(InfeasibleError, match="turn-by-turn sum, given with every answer, stops at 4800 turns"):
+        solve_turns(form, 1e3)
+
+
+@pytest.mark.parametrize("method", ["filament", "wheeler"])
+def test_spiral_limit_holds_for_both_methods(method):
+    form = FlatSpiral(inner_diameter=0.03, wire=wire("0.5mm"), method=method)
+    assert form.max_turns() == 3000
+    with pytest.raises(InfeasibleError, match="stops at 3000 turns"):
+        solve_turns(form, 1e3)
+
+
+def test_whole_turns_cost_one_sum_each(monkeypatch):
+    """At a whole number of turns the exact sum is evaluated there only, not also at N + 1 (the value is the
+    same: linear interpolation with a zero fraction); between whole numbers, at both neighbours."""
+    import coilplan.physics.multilayer as physics
+
+    asked = []
+    original = physics.multilayer_filament_inductance
+
+    def counting(inner, width, diameter, turns, **options):
+        asked.append(turns)
+        return original(inner, width, diameter, turns, **options)
+
+    monkeypatch.setattr(physics, "multilayer_filament_inductance", counting)
+    form = MultilayerCoil(former_diameter=0.01, width=0.008, wire=wire())
+    whole = float(form.inductance(300))
+    assert asked == [300]
+    between = float(form.inductance(300.25))
+    assert asked == [300, 301]  # 300 is cached
+    assert whole < between < float(form.inductance(301))
+
+
+def test_spiral_counts_come_from_one_pass(monkeypatch):
+    """A spiral's turns keep their radii as it grows: one pass answers every count up to the largest asked,
+    and each count equals the sum over that many turns alone."""
+    import coilplan.physics.multilayer as physics
+
+    passes = []
+    original = physics.spiral_filament_inductances
+
+    def counting(inner, pitch, diameter, turns):
+        passes.append(turns)
+        return original(inner, pitch, diameter, turns)
+
+    monkeypatch.setattr(physics, "spiral_filament_inductances", counting)
+    form = FlatSpiral(inner_diameter=0.03, wire=wire("0.5mm"))
+    solution = solve_turns(form, 50e-6)
+    assert len(passes) <= 8  # doubling 2, 4, 8, ... then the root: one pass per doubling, none per iteration
+    inner = 0.015 + form.wire.overall_diameter / 2 - form.radial_pitch / 2
+    alone = physics.spiral_filament_inductance(inner, form.radial_pitch, form.wire.diameter, solution.turns)
+    assert solution.inductance == pytest.approx(float(alone), rel=1e-13)
+
+
+def test_most_that_fit_only_where_the_sum_can_say_what_it_gives():
+    """A window deeper than the turn-by-turn sum goes (a 100 m build) gets no "most that fit" figure: its
+    inductance would be the sum over millions of turns. A window within the sum keeps its figure."""
+    deep = MultilayerCoil(former_diameter=0.01, width=0.008, wire=wire("0.2mm"), max_depth=100.0)
+    assert deep.fit_turns() == math.inf and deep.max_turns() == deep._exact_limit()
+    shallow = MultilayerCoil(former_diameter=0.01, width=0.008, wire=wire("0.2mm"), max_depth=0.005)
+    assert shallow.fit_turns() == shallow._window_turns() < shallow._exact_limit()
+    wide = FlatSpiral(inner_diameter=0.02, wire=wire("0.5mm"), spacing=0.0005, outer_diameter=100.0)
+    assert wide.fit_turns() == math.inf and wide.max_turns() == 3000
+    narrow = FlatSpiral(inner_diameter=0.02, wire=wire("0.5mm"), spacing=0.0005, outer_diameter=0.05)
+    assert narrow.fit_turns() == narrow.max_turns() < 3000

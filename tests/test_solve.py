@@ -115,3 +115,72 @@ def test_fixed_length_spreads_turns():
     solution = solve_turns(form, 20e-6)
     assert float(form.pitch_at(solution.turns)) * solution.turns == pytest.approx(0.04)
     assert solution.turns <= form.max_turns()
+
+
+# --- targets beyond any coil, and where the search stops (issue 8) ---------------------------------------------
+
+
+class CountingCore(ClosedCore):
+    """ClosedCore that counts the turn counts it was asked for, and may name a search limit of its own."""
+
+    def __init__(self, al, most=math.inf, search=None):
+        super().__init__(al, most)
+        self.search, self.asked = search, []
+
+    def inductance(self, turns):
+        self.asked.extend(np.atleast_1d(turns).tolist())
+        return super().inductance(turns)
+
+    def search_limit(self):
+        return (math.inf, "") if self.search is None else (self.search, f"{self.search:.0f} turns, the most "
+                                                                         f"this form plans")
+
+
+@pytest.mark.parametrize("target", [0.0, -1e-6, np.array([1e-6, 0.0])])
+def test_target_not_above_zero_is_below_one_turn(target):
+    """A band around a target, target·(1 − u) with u >= 1, reaches zero: that is below one turn, in words,
+    not a defect (one turn of any winding has some inductance)."""
+    with pytest.raises(InfeasibleError, match="not above zero: even one turn"):
+        solve_turns(ClosedCore(1e-9), target)
+
+
+def test_infinite_target_is_above_any_winding():
+    with pytest.raises(InfeasibleError, match="above what any winding reaches"):
+        solve_turns(ClosedCore(1e-9), math.inf)
+
+
+def test_nan_target_is_a_defect():
+    with pytest.raises(ValueError, match="numbers"):
+        solve_turns(ClosedCore(1e-9), math.nan)
+
+
+def test_form_search_limit_bounds_an_unlimited_form():
+    """A form with no physical limit but a search limit of its own: the solver stops there and the
+    refusal gives the form's words and the largest L it can reach (AL·N², IEC 60205)."""
+    form = CountingCore(1e-9, search=1000.0)
+    with pytest.raises(InfeasibleError, match="the most this form plans") as caught:
+        solve_turns(form, 1.0)
+    assert caught.value.achievable[1] == pytest.approx(1e-9 * 1000**2)
+    assert max(form.asked) == 1000.0
+    assert solve_turns(form, 1e-9 * 700**2).turns == 700
+
+
+def test_without_any_limit_the_search_stops_at_ten_million_turns():
+    """No limit at all: the refusal names the solver's own limit (ten million turns)."""
+    form = CountingCore(1e-12)
+    with pytest.raises(InfeasibleError, match="10000000 turns, beyond which this solver does not search"):
+        solve_turns(form, 1e6)
+    assert max(form.asked) == 1e7
+
+
+def test_solenoid_of_unstated_length_stops_at_a_hundred_metres():
+    """A former of unstated length is searched up to a 100 m winding (the longest length the tool reads), and
+    the reachable top is the inductance there: L of N = (100 m − d)/p + 1 turns."""
+    form = coil()
+    with pytest.raises(InfeasibleError, match=r"100\.0 m winding") as caught:
+        solve_turns(form, 1e3)
+    turns = math.floor((100.0 - form.wire.overall_diameter) / form.wire.overall_diameter + 1.0 + 1e-9)
+    assert caught.value.achievable[1] == pytest.approx(float(form.inductance(turns)), rel=1e-12)
+    # just inside: solved, and the winding is at most 100 m long
+    solution = solve_turns(form, 0.999 * caught.value.achievable[1])
+    assert float(form.winding_length(solution.turns)) <= 100.0

@@ -330,3 +330,21 @@ def test_drive_fields_and_cautions():
     assert any("licensing" in text for text in loud) and any("316 V" in text for text in loud)
     quiet = tank_cautions(power=0.01, voltage_rms=HIGH_RF_VOLTAGE_V / 2)
     assert len(quiet) == 1 and "licensing" in quiet[0]
+
+
+# --- a driven tank's Q and power within reason (issue 8) --------------------------------------------------------
+
+
+@pytest.mark.parametrize(("fields", "option"), [({"q": 1e300}, "--q"), ({"q": 1.5e5}, "--q"),
+                                                ({"power": 1e300}, "--power"), ({"power": 1e-9}, "--power")])
+def test_drive_beyond_any_tank_is_refused(fields, option):
+    """A loaded Q above 100,000 or a power outside a microwatt to 100 kW is a slip, refused by name: the
+    voltage √(P·Q·X) would otherwise be a figure of hundreds of digits."""
+    with pytest.raises(InvalidInputError, match=f"^{option}: expected"):
+        drive_fields(reactance=316.0, **fields)
+
+
+def test_drive_at_the_limits_is_finite():
+    """At Q = 100,000 and 100 kW across 316 Ω: V = √(1e5 · 1e5 · 316) = 1.78 MV RMS (hand-worked)."""
+    fields = drive_fields(reactance=316.0, power=1e5, q=1e5)
+    assert fields["tank_voltage_rms_V"] == pytest.approx(math.sqrt(1e5 * 1e5 * 316.0))

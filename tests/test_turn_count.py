@@ -355,3 +355,40 @@ def test_bad_values_name_their_option(call, option):
     with pytest.raises(InvalidInputError) as caught:
         call()
     assert caught.value.option == option
+
+
+# --- readings that give less than one turn (issue 8): a winding has at least one ----------------------------
+
+
+def test_added_turns_with_a_rise_far_too_large_is_infeasible():
+    """1 mH to 100 kH from 5 added turns: (N + 5)/N = √1e8 = 1e4, N = 5/9999 ≈ 0.0005 turns (IEC 60205 law)."""
+    with pytest.raises(InfeasibleError, match=r"give 0\.0005 turns .* less than the one turn"):
+        count_from_added_turns(1e-3, 1e5, 5)
+
+
+def test_test_winding_reading_below_one_test_turn_is_infeasible():
+    """An unknown winding reading less than one turn of the test winding would: N = 10·√(1 pH/1 µH) = 0.01."""
+    with pytest.raises(InfeasibleError, match=r"less than one turn of the test winding would \(10\.00 nH\)"):
+        count_from_test_winding(1e-6, 10, 1e-12)
+
+
+def test_resistance_below_one_turn_of_wire_is_infeasible():
+    """1 mΩ of 0.3 mm copper is 4.1 mm of wire at 20 °C (IEC 60028: 0.017241 Ω·mm²/m), under one 30 mm turn."""
+    with pytest.raises(InfeasibleError, match="below the resistance of a single turn"):
+        count_from_resistance(1e-3, parse_wire("0.3mm"), 0.030)
+
+
+def test_a_method_below_one_turn_is_dropped_with_a_note_when_another_stands():
+    """The sub-turn method is set aside in words; the other gives the count."""
+    answer = count_turns(before=1e-3, after=1e-3 * (110 / 100) ** 2, added=10,
+                         resistance=1e-3, wire=parse_wire("0.3mm"), turn_length=0.030)
+    assert answer.strongest.method == "added-turns" and answer.strongest.turns == 100
+    assert any(text.startswith("DC resistance not used:") and "one turn" in text for text in answer.warnings)
+
+
+def test_one_turn_at_the_edge_still_counts():
+    """A reading a little under one turn, within the tolerances of one, is one turn, not an error."""
+    wire = parse_wire("0.3mm")
+    one_turn = float(wire.resistance_per_metre(20.0)) * 0.030
+    estimate = count_from_resistance(0.8 * one_turn, wire, 0.030)
+    assert estimate.turns == 1

@@ -29,8 +29,11 @@ class PowerType(click.ParamType):
             return value
         match = _POWER.match(str(value).strip())
         watts = float(match.group(1)) * _POWER_SCALE[match.group(2)] if match else math.nan
+        low, high = tanks.TANK_POWER_RANGE
         if not (math.isfinite(watts) and watts > 0):
             self.fail(f"expected a power above zero such as 5W or 500mW; got {value!r}", param, ctx)
+        if not low <= watts <= high:
+            self.fail(f"expected a power such as 5W or 500mW (from 1 µW to 100 kW); got {value!r}", param, ctx)
         return watts
 
 
@@ -85,7 +88,8 @@ def _check_modes(*, resonances, band_text, capacitor_text, tolerance, others: di
               help=f"Accuracy of each resonance reading (assumed {tanks.DEFAULT_FREQUENCY_TOLERANCE:.1%} "
                    "if not given).")
 @click.option("--power", type=PowerType(), help="Power the tank is driven at, e.g. 5W (a transmitter's tank).")
-@click.option("--q", "q", type=click.FloatRange(min=0, min_open=True), help="Q of the loaded tank, e.g. 100.")
+@click.option("--q", "q", type=click.FloatRange(min=0, min_open=True, max=tanks.MAX_TANK_Q),
+              help="Q of the loaded tank, e.g. 100.")
 @json_option
 def tank(inductance, capacitance, frequency, band_text, capacitor_text, stray, padder, resonance_texts, tolerance,
          power, q, as_json):

@@ -17,7 +17,7 @@ from coilplan.physics.frequency import knight_self_capacitance, multilayer_self_
 from coilplan.quantities import format_length
 from coilplan.wire import Wire
 
-__all__ = ["MULTILAYER_METHODS", "MultilayerCoil", "MultilayerMethod"]
+__all__ = ["MULTILAYER_METHODS", "MultilayerCoil", "MultilayerMethod", "at_whole_turns"]
 
 MultilayerMethod = Literal["filament", "wheeler-1928"]
 LayerStyle = Literal["layered", "staggered"]
@@ -32,8 +32,23 @@ MULTILAYER_METHODS: dict[str, tuple[str, str]] = {
 }
 
 
+def at_whole_turns(turns, value_at):
+    """``value_at`` at whole turns (one costly sum each), linear between them for the root finder.
+
+    The same values as :func:`coilplan.forms._checks.between_whole_turns`, which at a whole N
+    also evaluates N + 1 (multiplied by a zero fraction): that doubled the cost of every answer.
+    """
+    turns = np.asarray(turns, dtype=float)
+    flat = np.atleast_1d(turns).ravel()
+    if flat.size and np.all((flat == np.floor(flat)) & (flat >= 1)):
+        values = np.array([value_at(int(n)) for n in flat]).reshape(turns.shape)
+        return values[()] if turns.ndim == 0 else values
+    return between_whole_turns(turns, value_at)
+
+
 #: Most turns and layers the exact filament sum takes on (its work grows as layers² × turns per
-#: layer: about 2 s at the layer limit here); beyond, Wheeler's formula is offered.
+#: layer: about a second at the limits here). Every answer gives that sum, Wheeler's method beside
+#: it, so the limits hold for both methods: a Wheeler answer past them would take minutes.
 EXACT_TURNS_LIMIT = 20_000
 EXACT_LAYERS_LIMIT = 200
 
@@ -142,8 +157,11 @@ class MultilayerCoil:
         return 1.0
 
     def fit_turns(self) -> float:
-        """Turns the winding window holds (``math.inf`` without a maximum depth)."""
-        return self._window_turns()
+        """Turns the winding window holds, for the answer's "most that fit" (``math.inf`` without a maximum
+        depth, and when the window holds more than the turn-by-turn sum takes on: what that many turns
+        would give cannot be worked out in seconds, so no figure is given for it)."""
+        window = self._window_turns()
+        return window if window <= self._exact_limit() else math.inf
 
     def _window_turns(self) -> float:
         if self.max_depth is None:
@@ -156,16 +174,15 @@ class MultilayerCoil:
         return float(min(EXACT_TURNS_LIMIT, EXACT_LAYERS_LIMIT * self._mean_layer_turns()))
 
     def max_turns(self) -> float:
-        window = self._window_turns()
-        return window if self.method != "filament" else min(window, math.floor(self._exact_limit()))
+        return min(self._window_turns(), math.floor(self._exact_limit()))
 
     def limit_reason(self, turns: float, lowest: bool = False) -> str:
         if lowest:
             return "a single turn on this former"
-        if self.method == "filament" and self._window_turns() > self._exact_limit():
-            return (f"the turn-by-turn sum stops at {math.floor(self._exact_limit())} turns "
-                    f"({EXACT_LAYERS_LIMIT} layers at most), to answer in seconds; "
-                    f"--method wheeler-1928 goes further (about 1 %)")
+        if self._window_turns() > self._exact_limit():
+            return (f"the turn-by-turn sum, given with every answer, stops at {math.floor(self._exact_limit())} "
+                    f"turns ({EXACT_LAYERS_LIMIT} layers or {EXACT_TURNS_LIMIT} turns at most), to answer in "
+                    f"seconds")
         return (f"the {format_length(self.width)} × {format_length(self.max_depth)} winding window holds "
                 f"{math.floor(turns + 1e-9)} turns of this wire ({self.style})")
 
@@ -200,7 +217,7 @@ class MultilayerCoil:
 
     def exact_inductance(self, turns):
         """The filament sum, H, at whole turns; linear between whole numbers for the root finder."""
-        return between_whole_turns(turns, self._whole)
+        return at_whole_turns(turns, self._whole)
 
     def wire_length(self, turns):
         """Wire to cut, m: each turn 2π × its layer's radius, plus a lead at each end."""

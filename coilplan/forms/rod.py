@@ -91,6 +91,11 @@ class RodCoil:
         if self.pitch is not None and self.pitch < self.wire.overall_diameter * (1 - 1e-9):
             raise InvalidInputError("--pitch", f"a pitch of at least the overall wire diameter "
                                     f"{format_length(self.wire.overall_diameter)}", format_length(self.pitch))
+        overall = self.wire.overall_diameter
+        if self.usable_length() < overall * (1 - 1e-9):
+            option, what = ("--rod-length", "a rod") if self.max_length is None else ("--max-length", "a usable length")
+            raise InvalidInputError(option, f"{what} at least one wire diameter long ({format_length(overall)}), "
+                                    f"room for one turn", format_length(self.usable_length()))
         if self.coil_length is not None and self.coil_length > self.usable_length() * (1 + 1e-12):
             raise InvalidInputError("--coil-length", f"a winding length within the usable "
                                     f"{format_length(self.usable_length())}", format_length(self.coil_length))

@@ -16,10 +16,24 @@ from coilplan.forms._checks import positive as _positive
 from coilplan.forms._losses import winding_resistance_factor
 from coilplan.physics import loops, solenoid
 from coilplan.physics.frequency import knight_self_capacitance, medhurst_self_capacitance
-from coilplan.quantities import format_length
+from coilplan.quantities import ACCEPTED_RANGES, format_length
 from coilplan.wire import Wire
 
-__all__ = ["SOLENOID_METHODS", "Solenoid", "SolenoidMethod"]
+__all__ = ["LONGEST_WINDING", "SOLENOID_METHODS", "Solenoid", "SolenoidMethod"]
+
+#: The longest winding the solver plans on a former of unstated length, m: the longest length the
+#: tool reads (coilplan.quantities.ACCEPTED_RANGES), 100 m.
+LONGEST_WINDING = ACCEPTED_RANGES["m"][1]
+
+#: Knight's self-capacitance formula was fitted to, and checked against, Medhurst's table over
+#: l/D = 0.1 to 50 (references.md §6; Knight 2016): outside that it is an extrapolation.
+KNIGHT_LENGTH_RATIO = (0.1, 50.0)
+
+#: Largest pitch angle (tan ψ = p/(πD)) for which Knight's 1/cos²ψ factor is taken without a
+#: warning: 20°, a helix a fifth of a turn's circumference per turn, coarser than any of
+#: Medhurst's spaced coils (our limit, no published figure). Beyond it the winding is more a
+#: bent wire than a coil, and 1/cos²ψ grows without bound as ψ nears 90°.
+KNIGHT_PITCH_ANGLE_DEG = 20.0
 
 SolenoidMethod = Literal["nagaoka-rosa", "filament", "sheet", "lundin", "wheeler-1982",
                          "wheeler-1928"]
@@ -148,6 +162,16 @@ class Solenoid:
             return (self.max_length - overall) / pitch + 1.0
         return math.inf
 
+    def search_limit(self) -> tuple[float, str]:
+        """Most turns the solver searches when nothing else limits them, and why: a winding as long as
+        :data:`LONGEST_WINDING`, the longest length the tool reads (a former longer than that is no
+        bench former)."""
+        pitch = float(self.pitch_at(1.0))
+        turns = (LONGEST_WINDING - self.wire.overall_diameter) / pitch + 1.0
+        return turns, (f"{math.floor(turns + 1e-9)} turns at {format_length(pitch)} pitch make a "
+                       f"{format_length(LONGEST_WINDING)} winding, the longest this tool plans (give --max-length "
+                       f"for the former's usable length)")
+
     def limit_reason(self, turns: float, lowest: bool = False) -> str:
         if lowest:
             return "a single turn of this wire at this diameter"
@@ -228,3 +252,21 @@ class Solenoid:
             warnings.warn("the wire is thick against the coil diameter (over a tenth of it): the "
                           "round-wire corrections assume a thin wire; expect about 1 % error",
                           OutsideValidityWarning, stacklevel=2)
+        self._self_capacitance_warnings(turns)
+
+    def _self_capacitance_warnings(self, turns: float) -> None:
+        """Warn where Knight's self-capacitance formula is used outside its range (an extrapolation)."""
+        length_ratio = float(self.sheet_length(turns)) / self.diameter
+        low, high = KNIGHT_LENGTH_RATIO
+        if not low <= length_ratio <= high:
+            warnings.warn(f"the self-capacitance (Knight's formula) is an extrapolation here: length / diameter "
+                          f"{length_ratio:.4g} is outside the {low:g} to {high:g} it was checked over against "
+                          f"Medhurst's measurements; treat it and the self-resonance as rough",
+                          OutsideValidityWarning, stacklevel=3)
+        angle = math.degrees(math.atan(float(self.pitch_at(turns)) / (math.pi * self.diameter)))
+        if angle > KNIGHT_PITCH_ANGLE_DEG:
+            warnings.warn(f"the pitch angle is {angle:.0f}°: Knight's 1/cos²ψ factor in the self-capacitance is "
+                          f"meant for a helix of small pitch angle ({KNIGHT_PITCH_ANGLE_DEG:g}° at most here, our "
+                          f"limit) and grows without bound towards 90°, so the self-capacitance and self-resonance "
+                          f"shown are not to be trusted; Medhurst's figure is given beside it",
+                          OutsideValidityWarning, stacklevel=3)

@@ -10,8 +10,9 @@ from typing import Literal, get_args
 import numpy as np
 
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
-from coilplan.forms._checks import between_whole_turns, positive
+from coilplan.forms._checks import positive
 from coilplan.forms._losses import winding_resistance_factor
+from coilplan.forms.multilayer import at_whole_turns
 from coilplan.physics import multilayer
 from coilplan.quantities import format_length
 from coilplan.wire import Wire
@@ -30,7 +31,8 @@ SPIRAL_METHODS: dict[str, tuple[str, str]] = {
 }
 
 
-#: Most turns the exact pair sum takes on (about 2 s here); beyond, Wheeler's formula is offered.
+#: Most turns the exact pair sum takes on (under a second here). Every answer gives that sum, Wheeler's
+#: method beside it, so the limit holds for both methods.
 EXACT_TURNS_LIMIT = 3_000
 
 
@@ -100,8 +102,10 @@ class FlatSpiral:
         return 1.0
 
     def fit_turns(self) -> float:
-        """Turns the space up to the outer diameter holds (``math.inf`` without one)."""
-        return self._room_turns()
+        """Turns the space up to the outer diameter holds, for the answer's "most that fit" (``math.inf``
+        without one, and when it holds more than the turn-by-turn sum takes on)."""
+        room = self._room_turns()
+        return room if room <= EXACT_TURNS_LIMIT else math.inf
 
     def _room_turns(self) -> float:
         if self.outer_diameter is None:
@@ -110,15 +114,14 @@ class FlatSpiral:
         return float(math.floor((room - self.wire.overall_diameter) / self.radial_pitch + 1e-9) + 1)
 
     def max_turns(self) -> float:
-        room = self._room_turns()
-        return room if self.method != "filament" else min(room, float(EXACT_TURNS_LIMIT))
+        return min(self._room_turns(), float(EXACT_TURNS_LIMIT))
 
     def limit_reason(self, turns: float, lowest: bool = False) -> str:
         if lowest:
             return "a single turn at this inner diameter"
-        if self.method == "filament" and self._room_turns() > EXACT_TURNS_LIMIT:
-            return (f"the turn-by-turn sum stops at {EXACT_TURNS_LIMIT} turns, to answer in seconds; "
-                    f"--method wheeler goes further (about 5 %)")
+        if self._room_turns() > EXACT_TURNS_LIMIT:
+            return (f"the turn-by-turn sum, given with every answer, stops at {EXACT_TURNS_LIMIT} turns, to answer "
+                    f"in seconds")
         return (f"{math.floor(turns + 1e-9)} turns at {format_length(self.radial_pitch)} radial pitch fill the "
                 f"space from {format_length(self.inner_diameter)} to {format_length(self.outer_diameter)}")
 
@@ -138,7 +141,7 @@ class FlatSpiral:
         """The filament sum, H, at whole turns; linear between whole numbers for the root finder."""
         with warnings.catch_warnings():
             warnings.simplefilter("ignore", OutsideValidityWarning)
-            return between_whole_turns(turns, self._whole)
+            return at_whole_turns(turns, self._whole)
 
     def wheeler_inductance(self, turns):
         """Wheeler's value, H, on the sheet: radial width c = N·s, mean radius inner + c/2."""
@@ -147,11 +150,18 @@ class FlatSpiral:
         return multilayer.wheeler_spiral_inductance(self.inner_diameter / 2.0 + depth / 2.0, depth, turns)
 
     def _whole(self, n: int) -> float:
-        if n not in self._cache:
+        """The filament sum at n turns, from one cached pass over every count up to the largest asked for.
+
+        The turns keep their radii as the spiral grows, so a pass to M turns answers every n <= M; a
+        larger n redoes the pass to twice M (not past the limit), so a solve costs about one pass in all.
+        """
+        known = self._cache.get("inductances")
+        if known is None or n > known.size:
+            size = max(n, min(2 * (0 if known is None else known.size), EXACT_TURNS_LIMIT + 1))
             inner = self.inner_diameter / 2.0 + self.wire.overall_diameter / 2.0 - self.radial_pitch / 2.0
-            self._cache[n] = float(multilayer.spiral_filament_inductance(inner, self.radial_pitch,
-                                                                         self.wire.diameter, n))
-        return self._cache[n]
+            known = multilayer.spiral_filament_inductances(inner, self.radial_pitch, self.wire.diameter, size)
+            self._cache["inductances"] = known
+        return float(known[n - 1])
 
     def turn_radii(self, turns: int):
         """Radii of the turn centres, m."""

@@ -54,7 +54,7 @@ import warnings
 
 import numpy as np
 from scipy.constants import mu_0
-from scipy.special import ellipe, ellipkm1
+from scipy.special import digamma, ellipe, ellipkm1, zeta
 
 from coilplan.errors import OutsideValidityWarning
 
@@ -111,9 +111,18 @@ def nagaoka_coefficient(ratio):
         K - E = \frac{\pi}{2}\sum_{n\ge1}\binom{2n}{n}^2 16^{-n}\,\frac{2n}{2n-1}\,m^n,
 
     so (k'²/k²)(K − E) = (K − E)/x² never divides a difference by a small
-    k². Relative error below 1e-14 for D/l up to 30 (against mpmath); the
-    short-coil cancellation in E − k grows as about 1e-16·(D/l)², i.e. 1e-9
-    at D/l = 1e3 and 1e-7 at D/l = 1e5.
+    k². Relative error below 1e-14 for D/l up to 10 (against mpmath), then
+    growing with the cancellation in E − k as about 1e-16·(D/l)², to 5e-14 at
+    D/l = 26. Shorter coils take the short-coil expansion [RosaGrover1912]_
+    (formula for a short solenoid, in powers of l/D), with y = ln 4x:
+
+    .. math::
+
+        K_L = \frac{2}{\pi x}\Bigl[y - \tfrac12 + \frac{y + \frac14}{8x^2}
+              - \frac{y - \frac23}{64x^4} + \frac{5\,(y - \frac{109}{120})}{1024x^6}\Bigr],
+
+    whose truncation error is below 1e-14 there and 2e-19 from D/l = 100 (against mpmath), so K_L stays
+    exact to rounding for a coil of any shortness.
 
     References
     ----------
@@ -134,6 +143,9 @@ def nagaoka_coefficient(ratio):
         # two special-function calls it is built on (tests/benchmarks/README.md)
         for start in range(0, flat.size, _BLOCK):
             coefficient[start:start + _BLOCK] = _nagaoka_kernel(flat[start:start + _BLOCK])
+        short = (flat > _SHORT_COIL_RATIO) & np.isfinite(flat)
+        if short.any():
+            coefficient[short] = _short_coil_series(flat[short])
         coefficient[flat == 0] = 1.0  # infinitely long coil
         coefficient[np.isposinf(flat)] = 0.0  # zero length
         coefficient[~(flat >= 0)] = np.nan  # negative or NaN
@@ -142,6 +154,20 @@ def nagaoka_coefficient(ratio):
 
 
 _BLOCK = 32768
+
+#: D/l above which the short-coil expansion replaces the closed form (where its truncation error
+#: falls below the closed form's cancellation, about 1e-14; against mpmath).
+_SHORT_COIL_RATIO = 26.0
+
+
+def _short_coil_series(x: np.ndarray) -> np.ndarray:
+    """K_L for D/l = x > 26 from the short-solenoid expansion (docstring of nagaoka_coefficient)."""
+    y = np.log(4.0 * x)
+    inverse2 = 1.0 / (x * x)
+    bracket = (y - 0.5) + inverse2 * ((y + 0.25) / 8.0
+                                      - inverse2 * ((y - 2.0 / 3.0) / 64.0
+                                                    - inverse2 * 5.0 * (y - 109.0 / 120.0) / 1024.0))
+    return 2.0 / (np.pi * x) * bracket
 
 
 def _nagaoka_kernel(x: np.ndarray) -> np.ndarray:
@@ -433,6 +459,48 @@ def _km_table(size: int) -> np.ndarray:
     return table
 
 
+#: Largest whole N whose km comes from the table of exact sums; above it, the sums' tails are
+#: evaluated in closed form (:func:`_km_beyond_table`), so km costs the same at any N.
+_KM_TABLE_SIZE = 1 << 16
+
+#: ε_k = Σ_j c_j k^(-j), j = 2, 4, ..., 22 (the series of :func:`_epsilon`, m = j + 2).
+_EPSILON_SERIES = tuple((j, 2.0 / ((j + 2) * (j + 1) * j)) for j in range(2, 24, 2))
+
+
+@functools.lru_cache(maxsize=1)
+def _km_base_sums() -> tuple[float, float]:
+    """Σ ε_k and Σ k·ε_k for k = 1 .. _KM_TABLE_SIZE, summed term by term."""
+    k = np.arange(1, _KM_TABLE_SIZE + 1, dtype=float)
+    eps = _epsilon(k)
+    return float(np.sum(eps)), float(np.sum(k * eps))
+
+
+def _km_beyond_table(n: np.ndarray) -> np.ndarray:
+    r"""km at whole N > _KM_TABLE_SIZE: the exact sums up to the table's end, then their tails in closed form.
+
+    With K = _KM_TABLE_SIZE and ε_k = Σ_j c_j k^{-j} (exact for k >= 8 to the 22nd power, a truncation
+    below 1e-100 here), the tails are Hurwitz zeta differences, ζ(s, a) = Σ_{i>=0} (i + a)^{-s}:
+
+    .. math::
+
+        \sum_{k=K+1}^{N-1} k^{-s} = \zeta(s, K+1) - \zeta(s, N), \qquad
+        \sum_{k=K+1}^{N-1} k^{-1} = \psi(N) - \psi(K+1)
+
+    (ψ the digamma function, DLMF 5.7.6 and 25.11.1), so km = 2 S0 − 2 S1/N costs O(1) at any N.
+    """
+    base = float(_KM_TABLE_SIZE + 1)
+    s0, s1 = _km_base_sums()
+    s0 = np.full(n.shape, s0)
+    s1 = np.full(n.shape, s1)
+    for power, coefficient in _EPSILON_SERIES:
+        s0 = s0 + coefficient * (zeta(power, base) - zeta(power, n))
+        if power == 2:  # k·k^-2 = 1/k: the harmonic tail
+            s1 = s1 + coefficient * (digamma(n) - digamma(base))
+        else:
+            s1 = s1 + coefficient * (zeta(power - 1, base) - zeta(power - 1, n))
+    return 2.0 * s0 - 2.0 * s1 / n
+
+
 def rosa_km(turns):
     r"""Rosa's mutual-inductance correction km (Grover's H), by its exact sum.
 
@@ -454,6 +522,8 @@ def rosa_km(turns):
     ndarray or float
         km, dimensionless: 0 at N = 1, 0.1137 at N = 2, rising to
         ln(2π) − 3/2 = 0.33788 as N → ∞. N < 1 returns 0 (mask); NaN stays NaN.
+        Beyond 65,536 turns the sums' tails are taken in closed form (Hurwitz zeta and
+        digamma), so a million turns cost no more than ten.
 
     Notes
     -----
@@ -470,13 +540,20 @@ def rosa_km(turns):
     n = np.asarray(turns, dtype=float)
     finite = np.isfinite(n)
     n_safe = np.where(finite, np.clip(n, 1.0, None), 1.0)
-    size = int(np.ceil(n_safe.max())) if n_safe.size else 1
-    size = max(2, 1 << max(size - 1, 1).bit_length())  # next power of two, for the cache
-    table = _km_table(size)
-    low = np.floor(n_safe).astype(np.intp)
-    high = np.minimum(low + 1, size)
+    low = np.floor(n_safe)
     fraction = n_safe - low
-    result = table[low] * (1.0 - fraction) + table[high] * fraction
+    largest = float(low.max()) + 1.0 if low.size else 2.0
+    size = max(2, 1 << max(int(min(largest, _KM_TABLE_SIZE)) - 1, 1).bit_length())  # a power of two, cached
+    table = _km_table(size)
+
+    def exact_at(whole):
+        in_table = whole <= size
+        values = table[np.where(in_table, whole, 0).astype(np.intp)]
+        if not in_table.all():
+            values = np.where(in_table, values, _km_beyond_table(np.maximum(whole, size + 1.0)))
+        return values
+
+    result = exact_at(low) * (1.0 - fraction) + exact_at(low + 1.0) * fraction
     result = np.where(finite, result, np.nan)
     return result[()] if result.ndim == 0 else result
 

@@ -207,3 +207,40 @@ def test_air_coil_q_is_in_the_range_measured_coils_show(diameter_mm, frequency_M
     assert result["srf_fraction"] < 1 / 2
     expected = 200 * (diameter_mm / 25.4 / 2) * math.sqrt(frequency_MHz)
     assert 0.8 * expected < result["q"] < 1.2 * expected
+
+
+# --- Knight's self-capacitance within its range, and readings this former can hold (issue 8) -------------------
+
+KNIGHT = "self-capacitance (Knight's formula) is an extrapolation"
+PITCH_ANGLE = "pitch angle is"
+
+
+def test_two_turns_over_a_metre_warn_that_knight_is_out_of_range():
+    """2 turns over 1 m on a 1 mm coil: l/D = 1000, far outside the 0.1 to 50 of Medhurst's table that Knight's
+    formula was checked over (references.md §6), and a pitch angle of atan(500 mm/(π·1 mm)) = 89.6°, where
+    1/cos²ψ = 1 + tan²ψ ≈ 25,000 (hand-worked) is what made 286 nF of a straight wire."""
+    document = run_json("solenoid", "--wire", "0.5mm", "--diameter", "1mm", "--length", "1000mm", "--turns", "2")
+    texts = document["warnings"]
+    assert any(KNIGHT in text and "1000" in text for text in texts), texts
+    assert any(PITCH_ANGLE in text and "90°" in text for text in texts), texts
+
+
+@pytest.mark.parametrize("extra", [(), ("--pitch", "1mm"), ("--target", "10uH")])
+def test_an_ordinary_coil_has_no_knight_warning(extra):
+    """A close-wound or spaced coil on a 25 mm former sits inside Knight's range: no such warning."""
+    arguments = [*BASE, *(extra if "--target" in extra else (*extra, "--turns", "20"))]
+    texts = run_json(*arguments)["warnings"]
+    assert not any(KNIGHT in text or PITCH_ANGLE in text for text in texts), texts
+
+
+def test_reading_beyond_the_longest_winding_is_refused():
+    """A reading at a million turns of 0.5 mm wire: a 535 m winding, longer than the 100 m the tool plans."""
+    result = run(*BASE, "--target", "10uH", "--measured", "1uH@1000000")
+    assert result.exit_code == 2
+    assert result.stderr.startswith("coilplan: error: --measured: expected a reading at a turn count")
+    assert "100.0 m winding" in result.stderr and result.stderr.count("\n") == 1
+
+
+def test_permittivity_beyond_any_former_is_refused():
+    result = run(*BASE, "--turns", "10", "--former-permittivity", "1000")
+    assert result.exit_code == 2 and "--former-permittivity" in result.stderr

@@ -495,6 +495,40 @@ def test_solenoid_long_coil_limit():
     assert 1 - ratio > 20 * bound  # the end effect itself is well resolved
 
 
+@pytest.mark.parametrize(("D", "p", "d", "n"), [
+    (0.0255, 0.000535, 0.0005, 20_000),  # 25 mm former, 0.5 mm wire: pairs beyond 191 pitches in closed form
+    (0.0255, 0.0000129, 0.00001, 100_000),  # fine wire: the switch at 7907 pitches
+    (np.array([0.01, 0.05]), 0.001, 0.0005, 5_000),  # geometry broadcast: one switch for both
+])
+def test_solenoid_far_pairs_in_closed_form_equal_the_term_by_term_sum(monkeypatch, D, p, d, n):
+    """Beyond 4 diameters the pairs are summed by the far-field series of Maxwell's formula and Hurwitz
+    zeta sums (DLMF 19.5, 25.11); it equals summing Maxwell's formula pair by pair to rounding."""
+    fast = solenoid_filament_inductance(D, p, d, n)
+    monkeypatch.setattr(loops, "_FAR_START", 1e12)  # every pair term by term
+    np.testing.assert_allclose(fast, solenoid_filament_inductance(D, p, d, n), rtol=2e-15)
+
+
+def test_solenoid_far_pairs_equal_the_general_filament_sum():
+    """The closed-form tail against the general pair sum over the same 600 turns (20 diameters long)."""
+    n, D, p, d = 600, 0.02, 0.001, 0.0006
+    general = coaxial_filaments_inductance(np.full(n, D / 2), p * np.arange(n), d / 2)
+    assert solenoid_filament_inductance(D, p, d, n) == pytest.approx(general, rel=1e-13, abs=0)
+
+
+def test_solenoid_sum_at_ten_million_turns_is_the_long_coil_value():
+    """The sum's cost no longer grows with N: ten million turns give the long-coil value µ0 π r² N/p times
+    Nagaoka's K_L (references.md §1) less Rosa's round-wire correction (ks + km)·p/(π r) with km at its
+    limit ln(2π) − 3/2 (references.md §3), without ten million evaluations of Maxwell's formula."""
+    D, p, d, n = 0.0255, 0.000535, 0.0005, 10_000_000
+    r = D / 2
+    long_coil = mu_0 * math.pi * r**2 * n / p
+    with mpmath.workdps(20):
+        nagaoka = float(nagaoka_coefficient_mp(D / (n * p)))
+    rosa = (1.25 - math.log(2 * p / d) + math.log(2 * math.pi) - 1.5) * p / (math.pi * r)
+    ratio = solenoid_filament_inductance(D, p, d, n) / long_coil
+    assert abs(ratio - (nagaoka - rosa)) < 1e-5
+
+
 def test_solenoid_broadcasts_over_geometry():
     """Array diameter, pitch and wire diameter give element-wise results of the broadcast shape."""
     D = np.array([0.02, 0.03, 0.05])[:, None]

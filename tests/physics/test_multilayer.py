@@ -11,6 +11,7 @@ from coilplan.physics.multilayer import (
     layered_winding_layout,
     multilayer_filament_inductance,
     spiral_filament_inductance,
+    spiral_filament_inductances,
     spiral_turn_radii,
     wheeler_multilayer_inductance,
     wheeler_spiral_inductance,
@@ -141,7 +142,21 @@ def test_wheeler_spiral_within_five_percent_for_a_wide_spiral():
 
 
 def test_direct_and_filament_engine_agree_for_spiral():
-    """spiral_filament_inductance is coaxial_filaments_inductance over its radii in one plane."""
+    """spiral_filament_inductance is the sum of coaxial_filaments_inductance over its radii in one plane,
+    to rounding (its in-plane kernel K − E is the general kernel's Carlson R_D in another form)."""
     radii = spiral_turn_radii(0.02, 0.001, 8)
-    assert spiral_filament_inductance(0.02, 0.001, 0.0005, 8) == coaxial_filaments_inductance(
-        radii, np.zeros(8), 0.00025)
+    assert spiral_filament_inductance(0.02, 0.001, 0.0005, 8) == pytest.approx(coaxial_filaments_inductance(
+        radii, np.zeros(8), 0.00025), rel=1e-14)
+
+
+@pytest.mark.parametrize(("inner", "pitch", "turns"), [(0.015, 0.000535, 700), (1e-5, 0.0006, 300), (5.0, 0.0006, 40)])
+def test_spiral_counts_from_one_pass_equal_the_general_sum(inner, pitch, turns):
+    """Every count 1 .. N from one pass equals the general pair sum over that many turns: across the
+    in-plane kernel's switch at (a/b)² = 0.1 (a tiny hole), with blocks of rows, and for a huge hole."""
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", OutsideValidityWarning)  # a tiny hole: thick wire for the first turn
+        counts = spiral_filament_inductances(inner, pitch, 0.0005, turns)
+        for n in (1, 2, 255, 256, 257, turns):
+            if n <= turns:
+                general = coaxial_filaments_inductance(spiral_turn_radii(inner, pitch, n), np.zeros(n), 0.00025)
+                assert counts[n - 1] == pytest.approx(general, rel=1e-13)
