@@ -23,6 +23,7 @@ from coilplan.errors import MeasurementWarning
 from coilplan.physics.frequency import apparent_inductance_and_resistance, q_factor, self_resonant_frequency
 from coilplan.quantities import format_quantity
 from coilplan.rewind import SRF_FRACTION
+from coilplan.solve import search_turns
 
 __all__ = ["ApparentForm", "GivenCapacitance", "frequency_fields", "has_frequency_model", "impedance_sweep"]
 
@@ -79,8 +80,7 @@ class ApparentForm:
         def product(turns):
             return omega2 * float(self.form.inductance(turns)) * float(self.form.self_capacitance(turns))
 
-        limit = float(self.form.max_turns())
-        limit = limit if math.isfinite(limit) else 1e7
+        limit, _ = search_turns(self.form)
         low, high = 1.0, min(2.0, limit)
         while product(high) < 1.0 and high < limit:  # double up to the limit: the model may be costly
             low, high = high, min(2.0 * high, limit)
@@ -98,8 +98,13 @@ class ApparentForm:
     def max_turns(self) -> float:
         return min(float(self.form.max_turns()), self._resonant_turns() * (1.0 - 1e-9))
 
+    def search_limit(self):
+        """The form's own search limit (its ``search_limit``, or the solver's) while self-resonance is beyond it."""
+        limit, reason = search_turns(self.form)
+        return limit, reason
+
     def limit_reason(self, turns: float, lowest: bool = False) -> str:
-        if lowest or self._resonant_turns() > float(self.form.max_turns()):
+        if lowest or not math.isfinite(self._resonant_turns()) or self._resonant_turns() > float(self.form.max_turns()):
             return self.form.limit_reason(turns, lowest)
         return (f"{math.floor(turns)} turns; with more, this coil resonates by itself below "
                 f"{format_quantity(self.frequency, 'Hz')}")

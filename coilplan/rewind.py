@@ -261,6 +261,11 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
     """
     warnings_: list[str] = []
     turns_now = int(list(readings)[-1][1])
+    fewest = min(int(count) for _, count in readings)
+    if conditions.turns_uncertainty >= fewest:
+        raise InvalidInputError("--turns-uncertainty", f"an uncertainty below the fewest turns read ({fewest}): "
+                                "a count known only to ± its own size could be no turns at all",
+                                f"{conditions.turns_uncertainty:g}")
     low_target = _target_at_low_frequency(target, conditions)
     try:
         solution = solve_turns(form, low_target)
@@ -281,7 +286,10 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
         try:
             ends.append(float(solve_turns(form, low_target * side).turns_exact))
         except InfeasibleError:
-            ends.append(math.nan)
+            # below one turn the band ends at the single turn; above the form's reach it stays open
+            lowest = float(form.min_turns())
+            below = low_target * side < float(form.inductance(lowest))
+            ends.append(lowest if below else math.nan)
     low_end, high_end = sorted(ends, key=lambda v: (math.isnan(v), v))
     # the whole numbers the answer could round to anywhere in the band
     turns_range = [round(low_end) if math.isfinite(low_end) else None,

@@ -12,14 +12,17 @@ from coilplan.calibrate import ScaledForm
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.physics.resonance import resonant_inductance
+from coilplan.quantities import format_quantity
 from coilplan.results._common import Measured
 from coilplan.rewind import DEFAULT_TOLERANCE, Conditions, closed_core_fit, low_frequency_readings, model_fit
+from coilplan.solve import search_turns
 
 __all__ = [
     "calibrate_form",
     "coil_options",
     "conditions_from",
     "measurement_options",
+    "readings_within_reach",
     "resolve_target",
     "run_model_coil",
     "tuning_options",
@@ -65,6 +68,7 @@ def calibrate_form(build, readings, conditions: Conditions, kind: str):
     if not readings:
         return with_given(build(None)), None
     readings = list(readings)
+    readings_within_reach(build(1.0 if kind == "al" else None), readings, conditions.turns_uncertainty)
     frequencies_given = conditions.meter_frequency is not None or conditions.operating_frequency is not None
     if conditions.self_capacitance is None and frequencies_given:
         # no measured self-capacitance: the form's own estimate for the coil as it is now
@@ -82,6 +86,30 @@ def calibrate_form(build, readings, conditions: Conditions, kind: str):
         fit = model_fit(form, low)
         calibrated = ScaledForm(form, fit.value)
     return with_given(calibrated), Measured(readings, fit, conditions)
+
+
+def readings_within_reach(form, readings, turns_uncertainty: float = 0.0) -> None:
+    """Refuse a reading (--measured L@N) at more turns than this form can hold, or a doubt on the counts
+    (--turns-uncertainty) as large as a count itself.
+
+    The limit is the one the solver works to (:func:`coilplan.solve.search_turns`): what fits the
+    former, window or rod, or on a former of unstated length the longest winding the tool plans.
+    A reading beyond it is not of this coil: a miscounted or mistyped turn count, or the wrong former.
+    A count known to ± its own size or more could be no turns at all.
+    """
+    readings = list(readings or ())
+    limit, reason = search_turns(form)
+    for inductance, turns in readings:
+        if turns > limit + 1e-9:
+            raise InvalidInputError(
+                "--measured", f"a reading at a turn count this coil can have, at most {limit:.0f}: "
+                f"{form.limit_reason(limit) if reason is None else reason}",
+                f"{format_quantity(inductance, 'H')}@{turns}")
+    fewest = min((turns for _, turns in readings), default=None)
+    if fewest is not None and turns_uncertainty >= fewest:
+        raise InvalidInputError("--turns-uncertainty", f"an uncertainty below the fewest turns read ({fewest}): "
+                                "a count known only to ± its own size could be no turns at all",
+                                f"{turns_uncertainty:g}")
 
 
 def tuning_options(function):

@@ -12,7 +12,6 @@ from coilplan.cli._measured import (
     tuning_options,
 )
 from coilplan.cli._types import QuantityType
-from coilplan.cli.solenoid import readings_within_reach
 from coilplan.forms import MULTILAYER_METHODS, MultilayerCoil
 from coilplan.report.coils_text import multilayer_lines
 from coilplan.results import multilayer_result
@@ -49,7 +48,6 @@ def multilayer(**options):
         form = MultilayerCoil(former_diameter=options["former"], width=options["width"], wire=wire,
                               style=options["style"], packing=options["packing"], max_depth=options["max_depth"],
                               lead=options["lead"], method=options["method"])
-        readings_within_reach(form, options["measured"], options["turns_uncertainty"])
         return form
 
     run_model_coil("multilayer", make_form, multilayer_result, multilayer_lines, "multilayer coil", options)

@@ -11,16 +11,15 @@ from coilplan.cli._measured import (
     coil_options,
     conditions_from,
     measurement_options,
+    readings_within_reach,
     resolve_target,
     tuning_options,
 )
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SOLENOID_METHODS, Solenoid
-from coilplan.quantities import format_quantity
 from coilplan.report.solenoid_text import solenoid_lines
 from coilplan.results import solenoid_result
-from coilplan.solve import search_turns
 from coilplan.wire import parse_wire
 
 __all__ = ["readings_within_reach", "solenoid"]
@@ -30,30 +29,6 @@ LENGTH = QuantityType("m")
 #: Largest relative permittivity taken for a former: ceramics used for coil formers are about 6 to 10,
 #: plastics 2 to 4 (common practice, no source); 100 leaves room and keeps the estimate a figure.
 MAX_FORMER_PERMITTIVITY = 100.0
-
-
-def readings_within_reach(form, readings, turns_uncertainty: float = 0.0) -> None:
-    """Refuse a reading (--measured L@N) at more turns than this form can hold, or a doubt on the counts
-    (--turns-uncertainty) as large as a count itself.
-
-    The limit is the one the solver works to (:func:`coilplan.solve.search_turns`): what fits the
-    former, window or rod, or on a former of unstated length the longest winding the tool plans.
-    A reading beyond it is not of this coil: a miscounted or mistyped turn count, or the wrong former.
-    A count known to ± its own size or more could be no turns at all.
-    """
-    readings = list(readings or ())
-    limit, reason = search_turns(form)
-    for inductance, turns in readings:
-        if turns > limit + 1e-9:
-            raise InvalidInputError(
-                "--measured", f"a reading at a turn count this coil can have, at most {limit:.0f}: "
-                f"{form.limit_reason(limit) if reason is None else reason}",
-                f"{format_quantity(inductance, 'H')}@{turns}")
-    fewest = min((turns for _, turns in readings), default=None)
-    if fewest is not None and turns_uncertainty >= fewest:
-        raise InvalidInputError("--turns-uncertainty", f"an uncertainty below the fewest turns read ({fewest}): "
-                                "a count known only to ± its own size could be no turns at all",
-                                f"{turns_uncertainty:g}")
 
 
 def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
@@ -101,7 +76,6 @@ def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, 
         return Solenoid(diameter=coil_diameter, wire=wire, pitch=pitch, length=length,
                         max_length=max_length, lead=lead, method=method, former_permittivity=former_permittivity)
 
-    readings_within_reach(build(None), measured, turns_uncertainty)
     with captured_warnings() as warnings_:
         form, readings = calibrate_form(build, measured, conditions, "scale")
         result = solenoid_result(form, turns=turns, target=target, temperature_C=temperature,

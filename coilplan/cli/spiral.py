@@ -12,7 +12,6 @@ from coilplan.cli._measured import (
     tuning_options,
 )
 from coilplan.cli._types import QuantityType
-from coilplan.cli.solenoid import readings_within_reach
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SPIRAL_METHODS, FlatSpiral
 from coilplan.report.coils_text import spiral_lines
@@ -50,7 +49,6 @@ def spiral(**options):
         form = FlatSpiral(inner_diameter=options["inner"], wire=wire,
                           spacing=0.0 if options["spacing"] is None else options["spacing"],
                           outer_diameter=options["outer"], lead=options["lead"], method=options["method"])
-        readings_within_reach(form, options["measured"], options["turns_uncertainty"])
         return form
 
     run_model_coil("spiral", make_form, spiral_result, spiral_lines, "flat spiral", options)

@@ -10,6 +10,11 @@ answers, vectorised over turns N (float arrays allowed for root finding):
 ``wire_length(N)``    wire to cut, m, leads included
 ``resistance(N)``     DC resistance at a temperature, ohm
 
+Optional: ``search_limit()`` gives (turns, reason) where ``max_turns()`` is
+infinite (a former of unstated length), so the solver refuses an unreachable
+target quickly; ``self_capacitance(N)`` (F) and ``ac_resistance(N, f)`` give the
+coil at frequency (:mod:`coilplan.apparent`); ``permeability_response()`` says
+how L follows the core's permeability (:mod:`coilplan.core_frequency`).
 Cored forms add ``flux_density(N, current)`` (T) for saturation checks.
 Forms check their inputs and raise :class:`~coilplan.errors.InvalidInputError`
 naming the command-line option, so the command line and the library give the

@@ -39,7 +39,7 @@ def drive_fields(form, turns: int, *, dc_current: float = 0.0, ac_current: float
         "max_current_A": check.max_dc_current,
         "near_saturation": check.near_saturation,
         # RMS current over the copper: DC plus a sine of the given amplitude
-        "current_density_A_per_mm2": math.sqrt(dc_current**2 + ac_current**2 / 2) / area_mm2,
+        "current_density_A_per_mm2": math.hypot(dc_current, ac_current / math.sqrt(2)) / area_mm2,
     }
     if ac_voltage is not None:
         fields["ac_voltage_V"] = ac_voltage
