@@ -516,37 +516,33 @@ def test_malformed_dispersion_row_names_file_line_and_column(change, column):
     assert (caught.value.file, caught.value.line, caught.value.column) == ("dispersion.csv", line, column)
 
 
-def test_dispersion_row_for_an_unknown_class_is_a_data_error(monkeypatch):
-    """A dispersion row naming a class missing from materials.csv raises DataFileError on the name column."""
-    rows = (materials_module._DispersionRow("nizn-999", 1e7, "typical", 1e-5, 1e5, 1e-4, 1e7,
-                                                     "invented for the test"),)
+def _dispersion_error(monkeypatch, row) -> DataFileError:
+    """The DataFileError that loading dispersion.csv raises when it holds only ``row``."""
     real_load = materials_module.load_table
     monkeypatch.setattr(materials_module, "load_table",
-                        lambda file, model: rows if file == "dispersion.csv" else real_load(file, model))
+                        lambda file, model: (row,) if file == "dispersion.csv" else real_load(file, model))
     materials_module._dispersions.cache_clear()
     try:
         with pytest.raises(DataFileError) as caught:
             materials_module.material_dispersion("nizn-125")
-        assert caught.value.column == "name" and "nizn-999" in str(caught.value)
+        return caught.value
     finally:
         monkeypatch.undo()
         materials_module._dispersions.cache_clear()
+
+
+def test_dispersion_row_for_an_unknown_class_is_a_data_error(monkeypatch):
+    """A dispersion row naming a class missing from materials.csv raises DataFileError on the name column."""
+    error = _dispersion_error(monkeypatch, materials_module._DispersionRow(
+        "nizn-999", 1e7, "typical", 1e-5, 1e5, 1e-4, 1e7, "invented for the test"))
+    assert error.column == "name" and "nizn-999" in str(error)
 
 
 def test_dispersion_high_point_below_the_first_is_a_data_error(monkeypatch):
     """A loss factor at the top of the range below the low-frequency one (a falling loss line) is refused."""
-    rows = (materials_module._DispersionRow("nizn-125", 5.4e7, "snoek", 3e-5, 1e5, 1e-5, 3e7, "invented for the test"),)
-    real_load = materials_module.load_table
-    monkeypatch.setattr(materials_module, "load_table",
-                        lambda file, model: rows if file == "dispersion.csv" else real_load(file, model))
-    materials_module._dispersions.cache_clear()
-    try:
-        with pytest.raises(DataFileError) as caught:
-            materials_module.material_dispersion("nizn-125")
-        assert caught.value.column == "loss_factor_high"
-    finally:
-        monkeypatch.undo()
-        materials_module._dispersions.cache_clear()
+    error = _dispersion_error(monkeypatch, materials_module._DispersionRow(
+        "nizn-125", 5.4e7, "snoek", 3e-5, 1e5, 1e-5, 3e7, "invented for the test"))
+    assert error.column == "loss_factor_high"
 
 
 def test_every_class_loss_line_rises_to_its_usual_range_top():

@@ -17,46 +17,35 @@ __all__ = ["CoreChoice", "core_at_frequency", "core_options", "drive_arguments",
 LENGTH = QuantityType("m")
 
 
-class MeasurementType(click.ParamType):
+class PairType(click.ParamType):
+    """``A@B``: a pair read by one of the parsers of :mod:`coilplan.quantities` (returns its tuple)."""
+
+    def __init__(self, name: str, parser):
+        self.name = name
+        self.parser = parser
+
+    def convert(self, value, param, ctx):
+        if isinstance(value, tuple):
+            return value
+        try:
+            return self.parser(value)
+        except InvalidInputError as error:
+            self.fail(f"expected {error.expected}; got {value!r}", param, ctx)
+
+
+def measurement_type() -> PairType:
     """``L@N``: an inductance measured at a whole number of turns."""
-
-    name = "L@N"
-
-    def convert(self, value, param, ctx):
-        if isinstance(value, tuple):
-            return value
-        try:
-            return parse_measurement(value)
-        except InvalidInputError as error:
-            self.fail(f"expected {error.expected}; got {value!r}", param, ctx)
+    return PairType("L@N", parse_measurement)
 
 
-class LossFactorType(click.ParamType):
+def loss_factor_type() -> PairType:
     """``tanδ/µi@f``: a relative loss factor at its frequency."""
-
-    name = "tanδ/µi@f"
-
-    def convert(self, value, param, ctx):
-        if isinstance(value, tuple):
-            return value
-        try:
-            return parse_loss_factor(value)
-        except InvalidInputError as error:
-            self.fail(f"expected {error.expected}; got {value!r}", param, ctx)
+    return PairType("tanδ/µi@f", parse_loss_factor)
 
 
-class QReadingType(click.ParamType):
+def q_reading_type() -> PairType:
     """``Q@f``: a Q read on the meter at its test frequency."""
-
-    name = "Q@f"
-
-    def convert(self, value, param, ctx):
-        if isinstance(value, tuple):
-            return value
-        try:
-            return parse_q_reading(value)
-        except InvalidInputError as error:
-            self.fail(f"expected {error.expected}; got {value!r}", param, ctx)
+    return PairType("Q@f", parse_q_reading)
 
 
 def core_options(function):
@@ -72,12 +61,12 @@ def core_options(function):
                      help="Relative permeability of the core (1 to 1e6)."),
         click.option("--material", help="A generic material class (see: coilplan materials)."),
         click.option("--al", type=QuantityType("H/t2"), help="Known AL value, inductance per turn², e.g. 420nH."),
-        click.option("--measured", "measured", type=MeasurementType(), multiple=True,
+        click.option("--measured", "measured", type=measurement_type(), multiple=True,
                      help="A reading L@N on a test winding, e.g. 150uH@40 (repeatable): gives the AL."),
-        click.option("--loss-factor", type=LossFactorType(),
+        click.option("--loss-factor", type=loss_factor_type(),
                      help="The core material's relative loss factor tanδ/µi at a frequency, e.g. 40e-6@1MHz "
                           "(a data sheet's figure): gives the core's loss at --at."),
-        click.option("--measured-q", type=QReadingType(),
+        click.option("--measured-q", type=q_reading_type(),
                      help="The Q the meter showed on the winding of the last --measured reading, with its test "
                           "frequency, e.g. 85@100kHz: gives the core's loss."),
         click.option("--bsat", type=QuantityType("T"),

@@ -148,7 +148,7 @@ def _stack(options):
 def coil_options(function):
     """What every air-cored form command shares: turns or target, the wire, the leads and temperature,
     readings of the coil in hand and the operating frequency."""
-    from coilplan.cli._cored import MeasurementType
+    from coilplan.cli._cored import measurement_type
     from coilplan.cli._types import CountType, TemperatureType
 
     length = QuantityType("m")
@@ -165,7 +165,7 @@ def coil_options(function):
                      help="Lead allowance per end, added to the wire to cut."),
         click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
                      help="Winding temperature for a second DC resistance figure."),
-        click.option("--measured", "measured", type=MeasurementType(), multiple=True,
+        click.option("--measured", "measured", type=measurement_type(), multiple=True,
                      help="A reading L@N on this coil, e.g. 47uH@30 (repeatable): calibrates the model."),
         click.option("--at", "frequency", type=QuantityType("Hz"),
                      help="Operating frequency: the target is the inductance the coil shows there; adds SRF, R, Q."),

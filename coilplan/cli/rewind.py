@@ -7,7 +7,7 @@ import warnings
 import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
-from coilplan.cli._cored import MeasurementType
+from coilplan.cli._cored import measurement_type
 from coilplan.cli._measured import conditions_from, measurement_options
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError, MeasurementWarning
@@ -19,7 +19,7 @@ __all__ = ["rewind"]
 
 
 @click.command()
-@click.option("--measured", "measured", type=MeasurementType(), multiple=True, required=True,
+@click.option("--measured", "measured", type=measurement_type(), multiple=True, required=True,
               help="A reading L@N, e.g. 120uH@36 (repeatable; the last is the coil as it is now).")
 @click.option("--target", type=QuantityType("H"), required=True, help="Inductance wanted (as read at --at).")
 @click.option("--offset", is_flag=True, help="Fit a fixed series inductance for the leads (two readings or more).")

@@ -8,7 +8,7 @@ from pathlib import Path
 import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
-from coilplan.cli._cored import MeasurementType
+from coilplan.cli._cored import measurement_type
 from coilplan.cli._measured import conditions_from
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import InvalidInputError
@@ -99,7 +99,7 @@ def trim(ctx: click.Context) -> None:
 @click.option("--turn-length", type=QuantityType("m"), help="Mean length of one turn, for the wire to add or remove.")
 @click.option("--wire", "wire_text", help="The wire (for the resistance change), e.g. 0.5mm or 26swg.")
 @click.option("--name", help="A name for the coil, shown in the reports.")
-@click.option("--measured", "measured", type=MeasurementType(), multiple=True,
+@click.option("--measured", "measured", type=measurement_type(), multiple=True,
               help="Readings already taken, L@N (repeatable; the last is the coil as it is now).")
 @click.option("--force", is_flag=True, help="Replace a file already at FILE.")
 @plot_option
@@ -137,7 +137,7 @@ def start(file, target, frequency, meter_freq, tolerance, self_capacitance, offs
 
 @trim.command()
 @click.argument("file", type=LOG_FILE)
-@click.option("--measured", "measured", type=MeasurementType(), required=True,
+@click.option("--measured", "measured", type=measurement_type(), required=True,
               help="The coil as it is now, L@N, e.g. 96uH@27.")
 @click.option("--note", help="A note kept with the reading (what was done, the meter used).")
 @plot_option
