@@ -56,10 +56,7 @@ class FileWriteError(CoilplanError, OSError):
         self.replaced = tuple(str(path) for path in replaced)
 
     def __str__(self) -> str:
-        text = f"{self.file}: cannot write it ({self.reason}); {_aftermath(self.existed)}"
-        if self.replaced:
-            text += f" (already replaced: {', '.join(self.replaced)})"
-        return text
+        return _outcome(self.file, f"cannot write it ({self.reason})", self.existed, self.replaced)
 
 
 class WriteInterrupted(KeyboardInterrupt):
@@ -76,10 +73,15 @@ class WriteInterrupted(KeyboardInterrupt):
         self.replaced = tuple(str(path) for path in replaced)
 
     def __str__(self) -> str:
-        text = f"{self.file}: interrupted while writing it; {_aftermath(self.existed)}"
-        if self.replaced:
-            text += f" (already replaced: {', '.join(self.replaced)})"
-        return text
+        return _outcome(self.file, "interrupted while writing it", self.existed, self.replaced)
+
+
+def _outcome(file: str, what: str, existed: bool, replaced: tuple[str, ...]) -> str:
+    """``file: what; what became of it`` and the files of its set already replaced, if any."""
+    text = f"{file}: {what}; {_aftermath(existed)}"
+    if replaced:
+        text += f" (already replaced: {', '.join(replaced)})"
+    return text
 
 
 def _write_all(descriptor: int, data: bytes) -> None:
