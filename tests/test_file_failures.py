@@ -432,3 +432,31 @@ def test_ctrl_c_while_a_form_plot_is_written_names_the_file(tmp_path, monkeypatc
     assert outcome.exit_code == 1 and len(lines) == 1
     assert str(picture) in lines[0] and "interrupted" in lines[0] and not picture.exists()
     assert not list(tmp_path.iterdir())  # no temporary file left behind
+
+
+def test_kit_files_are_replaced_as_one_set(tmp_path, monkeypatch):
+    """A full disk on the second file of a --force rewrite leaves every file of the earlier plan as it was."""
+    from click.testing import CliRunner
+
+    from coilplan.cli import main
+
+    plan = tmp_path / "plan.toml"
+    plan.write_text(PLAN.format(target="8uH"), encoding="utf-8")
+    out = tmp_path / "out"
+    assert CliRunner().invoke(main, ["kit", str(plan), "--out", str(out)]).exit_code == 0
+    before = {path.name: path.read_bytes() for path in out.iterdir()}
+    plan.write_text(PLAN.format(target="9uH"), encoding="utf-8")
+    real_write = os.write
+    calls = {"n": 0}
+
+    def full_after_one_file(descriptor, data):
+        calls["n"] += 1
+        if calls["n"] > 1:
+            raise OSError(errno.ENOSPC, "No space left on device")
+        return real_write(descriptor, data)
+
+    monkeypatch.setattr(os, "write", full_after_one_file)
+    outcome = CliRunner().invoke(main, ["kit", str(plan), "--out", str(out), "--force"])
+    monkeypatch.undo()
+    assert outcome.exit_code == 1 and "No space left" in outcome.stderr
+    assert {path.name: path.read_bytes() for path in out.iterdir()} == before

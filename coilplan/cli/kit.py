@@ -28,18 +28,17 @@ def _outputs(out: Path, plan_file, fields, result) -> dict[str, bytes]:
 
 
 def _write(files: dict[str, bytes], force: bool) -> None:
-    from coilplan.files import FileWriteError, write_atomically
+    from coilplan.files import FileWriteError, write_all_atomically
 
     existing = [path for path in files if Path(path).exists()]
     if existing and not force:
         more = f" and {len(existing) - 1} more" if len(existing) > 1 else ""
         raise InvalidInputError("--out", f"a folder without the plan's files, or --force to replace them "
                                 f"({existing[0]}{more} already there)", None)
-    for path, data in files.items():
-        try:
-            write_atomically(path, data)
-        except FileWriteError as error:
-            raise click.ClickException(str(error)) from None
+    try:  # the plan's files as one set: none is replaced unless all could be written
+        write_all_atomically(files)
+    except FileWriteError as error:
+        raise click.ClickException(str(error)) from None
 
 
 @click.command()
