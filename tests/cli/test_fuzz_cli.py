@@ -5,6 +5,7 @@ micro signs, commas, exponents, huge and tiny numbers, empty strings and unicode
 """
 
 import os
+import tempfile
 
 from click.testing import CliRunner
 from hypothesis import given, settings
@@ -94,22 +95,22 @@ TRIM_OPTIONS = ["--target", "--tolerance", "--measured", "--at", "--meter-freq",
 def test_random_trim_logs_never_crash(data):
     """`trim start` then `trim add` with random values: exit 0, 1 or 2, one line on failure, a log only on success."""
     options = data.draw(st.lists(st.sampled_from(TRIM_OPTIONS), min_size=1, max_size=3, unique=True))
-    arguments = ["trim", "start", "log.json", "--target", "100uH"]
-    for option in options:
-        if option == "--offset":
-            arguments.append(option)
-        else:
-            arguments += [option, data.draw(value())]
-    runner = CliRunner()
-    with runner.isolated_filesystem():
-        result = runner.invoke(main, arguments)
+    with tempfile.TemporaryDirectory() as folder:
+        log = os.path.join(folder, "log.json")
+        arguments = ["trim", "start", log, "--target", "100uH"]
+        for option in options:
+            if option == "--offset":
+                arguments.append(option)
+            else:
+                arguments += [option, data.draw(value())]
+        result = CliRunner().invoke(main, arguments)
         assert result.exit_code in (0, 1, 2), (arguments, result.output)
         assert "Traceback" not in result.output and "internal error" not in result.output, (arguments, result.output)
         if result.exit_code:
             assert result.stderr.count("\n") == 1, (arguments, result.stderr)
-            assert not os.path.exists("log.json"), arguments  # a refused start writes nothing
+            assert not os.path.exists(log), arguments  # a refused start writes nothing
             return
-        added = runner.invoke(main, ["trim", "add", "log.json", "--measured", data.draw(value())])
+        added = CliRunner().invoke(main, ["trim", "add", log, "--measured", data.draw(value())])
         assert added.exit_code in (0, 1, 2), added.output
         assert "Traceback" not in added.output and "internal error" not in added.output, added.output
 
@@ -142,11 +143,11 @@ def test_random_plan_files_never_crash(data):
     else:
         raw = data.draw(value())
         fields[table][key] = data.draw(st.sampled_from([f'"{raw}"', raw or '""', f"'{raw}'"]))
-    runner = CliRunner()
-    with runner.isolated_filesystem():
-        with open("plan.toml", "w", encoding="utf-8") as handle:
+    with tempfile.TemporaryDirectory() as folder:
+        plan = os.path.join(folder, "plan.toml")
+        with open(plan, "w", encoding="utf-8") as handle:
             handle.write(_plan(fields))
-        result = runner.invoke(main, ["kit", "plan.toml"])
+        result = CliRunner().invoke(main, ["kit", plan])
     assert result.exit_code in (0, 1, 2), result.output
     assert "Traceback" not in result.output and "internal error" not in result.output, (fields, result.output)
     if result.exit_code == 2:
