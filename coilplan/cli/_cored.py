@@ -63,7 +63,7 @@ def core_options(function):
         click.option("--al", type=QuantityType("H/t2"), help="Known AL value, inductance per turn², e.g. 420nH."),
         click.option("--measured", "measured", type=measurement_type(), multiple=True,
                      help="A reading L@N on a test winding, e.g. 150uH@40 (repeatable): gives the AL."),
-        click.option("--loss-factor", type=loss_factor_type(),
+        click.option("--loss-factor", type=loss_factor_type(), metavar="tanδ/µi@f",
                      help="The core material's relative loss factor tanδ/µi at a frequency, e.g. 40e-6@1MHz "
                           "(a data sheet's figure): gives the core's loss at --at."),
         click.option("--measured-q", type=q_reading_type(),
@@ -187,9 +187,11 @@ def core_at_frequency(form, core: CoreChoice, *, mu: float | None, loss_factor, 
                                    probe.spectrum.mu_low_frequency)
         if found is None:
             copper_q = 2 * math.pi * q_frequency * float(probe.inductance(turns)) / copper
+            fallback = (f"the typical loss of {core.material_name} is used" if dispersion is not None
+                        else "it is left out")
             warnings.warn(f"the Q reading {q_value:g} at {format_quantity(q_frequency, 'Hz')} is at or above the "
                           f"copper's alone ({copper_q:.0f} by the model): the core's loss is too small to tell from "
-                          f"it, and is left out", MeasurementWarning, stacklevel=2)
+                          f"it, and {fallback}", MeasurementWarning, stacklevel=2)
             if dispersion is None:
                 return form
             loss_factor = None
