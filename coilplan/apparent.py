@@ -96,7 +96,10 @@ class ApparentForm:
         return low
 
     def max_turns(self) -> float:
-        return min(float(self.form.max_turns()), self._resonant_turns() * (1.0 - 1e-9))
+        resonant = self._resonant_turns()
+        if resonant <= float(self.form.min_turns()):
+            return 0.0  # even the fewest turns resonate below the frequency: none work
+        return min(float(self.form.max_turns()), resonant * (1.0 - 1e-9))
 
     def search_limit(self):
         """The form's own search limit (its ``search_limit``, or the solver's) while self-resonance is beyond it."""
@@ -106,8 +109,10 @@ class ApparentForm:
     def limit_reason(self, turns: float, lowest: bool = False) -> str:
         if lowest or not math.isfinite(self._resonant_turns()) or self._resonant_turns() > float(self.form.max_turns()):
             return self.form.limit_reason(turns, lowest)
-        return (f"{math.floor(turns)} turns; with more, this coil resonates by itself below "
-                f"{format_quantity(self.frequency, 'Hz')}")
+        at = format_quantity(self.frequency, "Hz")
+        if turns < float(self.form.min_turns()):
+            return f"with that, this coil already resonates by itself below {at}"
+        return f"{math.floor(turns)} turns; with more, this coil resonates by itself below {at}"
 
     def __getattr__(self, name):
         return getattr(self.form, name)

@@ -20,6 +20,7 @@ the gapped core's loss angle is tanδ/µi·µe, from memory); about µrod/µ for
 from __future__ import annotations
 
 import dataclasses
+import functools
 import math
 from collections.abc import Callable
 from dataclasses import dataclass
@@ -132,7 +133,8 @@ class CoreAtFrequency:
     """A cored form seen at ``frequency``: inductance(N) with the core's µ' there, and the core's loss.
 
     ``form`` is calibrated at ``spectrum.reference_frequency``; everything but the inductance
-    and the core loss delegates to it.
+    and the core loss delegates to it. The core's figures at ``frequency`` are worked out once
+    (the solver asks for the inductance many times).
     """
 
     form: object
@@ -140,25 +142,25 @@ class CoreAtFrequency:
     frequency: float
     response: Callable[[float], float]
 
-    @property
+    @functools.cached_property
     def inductance_ratio(self) -> float:
         """L(f)/L(f_ref)."""
         at = float(self.spectrum.real_permeability(self.frequency))
         return float(self.response(at)) / float(self.response(self.spectrum.mu))
 
-    @property
+    @functools.cached_property
     def dilution(self) -> float:
         """D = ∂ln g/∂ln µ at µ'(f), by a central difference."""
         mu = float(self.spectrum.real_permeability(self.frequency))
         up, down = float(self.response(mu * (1 + _STEP))), float(self.response(mu * (1 - _STEP)))
         return math.log(up / down) / (math.log1p(_STEP) - math.log1p(-_STEP))
 
-    @property
+    @functools.cached_property
     def real_permeability(self) -> float:
         """µ' of the core at ``frequency``."""
         return float(self.spectrum.real_permeability(self.frequency))
 
-    @property
+    @functools.cached_property
     def loss_tangent(self) -> float:
         """tanδ of the core's material at ``frequency``."""
         return float(self.spectrum.loss_tangent(self.frequency))
@@ -195,7 +197,7 @@ def at_frequency(form, spectrum: CoreSpectrum | None, frequency: float | None):
 
 def loss_factor_from_q(q_reading: float, frequency: float, inductance: float, copper_resistance: float,
                        dilution: float, mu_low_frequency: float) -> float | None:
-    r"""The material's relative loss factor from a Q the meter read on the winding.
+    r"""The material's relative loss factor from a Q the meter read on the winding (Q = ωL/R, common practice).
 
     .. math::
 

@@ -12,7 +12,7 @@ from coilplan.cli._types import CountType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_quantity, parse_loss_factor, parse_measurement, parse_q_reading
 
-__all__ = ["CoreChoice", "core_at_frequency", "core_options", "drive_arguments", "resolve_core"]
+__all__ = ["CoreChoice", "core_at_frequency", "core_options", "drive_arguments", "finish_cored", "resolve_core"]
 
 LENGTH = QuantityType("m")
 
@@ -206,3 +206,17 @@ def core_at_frequency(form, core: CoreChoice, *, mu: float | None, loss_factor, 
     spectrum = CoreSpectrum(mu=mu, reference_frequency=reference, dispersion=dispersion,
                             loss_factor=value, loss_factor_frequency=at, loss_factor_source=source)
     return at_frequency(form, spectrum, frequency)
+
+
+def finish_cored(command: str, *, form, result: dict, core: CoreChoice, plot_path, frequency, temperature: float,
+                 title: str, unknown_core: bool, tuned: bool, warnings_: list[str], as_json: bool, render) -> None:
+    """The end every cored command shares: the plot if asked, the cautions, and the answer printed."""
+    from coilplan.cautions import tuned_circuit_cautions
+    from coilplan.cli._common import context_inputs, draw_impedance_plot, emit
+    from coilplan.results.cored import cored_cautions
+
+    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"{title}, {result['turns']} turns")
+    cautions = cored_cautions(result, temperature, material_name=core.material_name, unknown_core=unknown_core)
+    cautions += tuned_circuit_cautions(tuned)
+    emit(command=command, as_json=as_json, inputs=context_inputs(), result=result, warnings_=warnings_,
+         cautions=cautions, render=render)

@@ -5,10 +5,9 @@ from __future__ import annotations
 import click
 
 from coilplan.apparent import GivenCapacitance
-from coilplan.cautions import tuned_circuit_cautions
 from coilplan.choke import design_choke
-from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, resolve_core
+from coilplan.cli._common import captured_warnings, json_option, plot_option
+from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, finish_cored, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
     conditions_from,
@@ -20,7 +19,7 @@ from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import GappedCore
 from coilplan.report.cored_text import gapped_lines
-from coilplan.results.cored import cored_cautions, gapped_result
+from coilplan.results.cored import gapped_result
 from coilplan.saturation import NEAR_SATURATION
 from coilplan.wire import parse_wire
 
@@ -115,9 +114,7 @@ def gapped(ae, le, gap, window_width, window_depth, no_fringing, max_flux, turns
             raise InvalidInputError("--gap", "a gap, or --turns with --target (gives the gap), or --target with "
                                     "--current (gives turns and gap)", None)
     result["mode"] = mode
-    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"gapped core, {result['turns']} turns")
-    cautions = cored_cautions(result, temperature, material_name=core.material_name,
-                              unknown_core=core.material_name is None and bool(measured))
-    cautions += tuned_circuit_cautions(target_frequency is not None)
-    emit(command="gapped", as_json=as_json, inputs=context_inputs(),
-         result=result, warnings_=warnings_, cautions=cautions, render=gapped_lines)
+    finish_cored("gapped", form=form, result=result, core=core, plot_path=plot_path, frequency=frequency,
+                 temperature=temperature, title="gapped core",
+                 unknown_core=core.material_name is None and bool(measured), tuned=target_frequency is not None,
+                 warnings_=warnings_, as_json=as_json, render=gapped_lines)

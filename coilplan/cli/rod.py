@@ -6,9 +6,8 @@ import warnings
 
 import click
 
-from coilplan.cautions import tuned_circuit_cautions
-from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, resolve_core
+from coilplan.cli._common import captured_warnings, json_option, plot_option
+from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, finish_cored, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
     conditions_from,
@@ -21,7 +20,7 @@ from coilplan.cli.solenoid import one_of
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.forms import RodCoil
 from coilplan.report.cored_text import rod_lines
-from coilplan.results.cored import cored_cautions, rod_result
+from coilplan.results.cored import rod_result
 from coilplan.wire import parse_wire
 
 __all__ = ["rod"]
@@ -80,8 +79,6 @@ def rod(rod_length, rod_diameter, former, pitch, coil_length, position, max_leng
         if readings is None:
             warnings.warn(_UNCALIBRATED, OutsideValidityWarning, stacklevel=1)
         result = rod_result(form, turns=turns, target=target, temperature_C=temperature, measured=readings, **drive)
-    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"coil on a rod, {result['turns']} turns")
-    cautions = cored_cautions(result, temperature, material_name=core.material_name)
-    cautions += tuned_circuit_cautions(target_frequency is not None)
-    emit(command="rod", as_json=as_json, inputs=context_inputs(),
-         result=result, warnings_=warnings_, cautions=cautions, render=rod_lines)
+    finish_cored("rod", form=form, result=result, core=core, plot_path=plot_path, frequency=frequency,
+                 temperature=temperature, title="coil on a rod", unknown_core=False,
+                 tuned=target_frequency is not None, warnings_=warnings_, as_json=as_json, render=rod_lines)

@@ -4,9 +4,8 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cautions import tuned_circuit_cautions
-from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, resolve_core
+from coilplan.cli._common import captured_warnings, json_option, plot_option
+from coilplan.cli._cored import LENGTH, core_at_frequency, core_options, drive_arguments, finish_cored, resolve_core
 from coilplan.cli._measured import (
     calibrate_form,
     conditions_from,
@@ -18,7 +17,7 @@ from coilplan.cli._types import QuantityType
 from coilplan.cli.solenoid import one_of
 from coilplan.forms import Toroid
 from coilplan.report.cored_text import toroid_lines
-from coilplan.results.cored import cored_cautions, toroid_result
+from coilplan.results.cored import toroid_result
 from coilplan.wire import parse_wire
 
 __all__ = ["toroid"]
@@ -74,9 +73,6 @@ def toroid(outer, inner, height, chamfer, layers, turns, target, wire_text, grad
 
             matches = materials_for_permeability(result["mu_r"])
             result["matching_materials"] = [match.material.name for match in matches]
-    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"toroid, {result['turns']} turns")
-    cautions = cored_cautions(result, temperature, material_name=core.material_name,
-                              unknown_core=core.material_name is None and bool(measured))
-    cautions += tuned_circuit_cautions(target_frequency is not None)
-    emit(command="toroid", as_json=as_json, inputs=context_inputs(),
-         result=result, warnings_=warnings_, cautions=cautions, render=toroid_lines)
+    finish_cored("toroid", form=form, result=result, core=core, plot_path=plot_path, frequency=frequency,
+                 temperature=temperature, title="toroid", unknown_core=core.material_name is None and bool(measured),
+                 tuned=target_frequency is not None, warnings_=warnings_, as_json=as_json, render=toroid_lines)

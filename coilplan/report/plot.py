@@ -58,6 +58,14 @@ def _matplotlib():
     return rc_context, FigureCanvasAgg, Figure
 
 
+def _picture(figure, fmt: str, rc_context) -> bytes:
+    """The figure as the bytes of a reproducible file: fixed SVG hash salt, no dates in the metadata."""
+    buffer = io.BytesIO()
+    with rc_context({"svg.hashsalt": _SALT, "svg.fonttype": "path"}):
+        figure.savefig(buffer, format=fmt, metadata=_NO_DATES[fmt])
+    return buffer.getvalue()
+
+
 def impedance_plot(*, sweep: dict, operating_frequency: float | None, fmt: str, title: str | None = None) -> bytes:
     """Draw |Z| and Q against frequency (log axes), marking the SRF and the operating point; the file's bytes.
 
@@ -102,10 +110,7 @@ def impedance_plot(*, sweep: dict, operating_frequency: float | None, fmt: str, 
     top.legend(loc="upper left", fontsize="small")
     if title:
         top.set_title(title)
-    buffer = io.BytesIO()
-    with rc_context({"svg.hashsalt": _SALT, "svg.fonttype": "path"}):
-        figure.savefig(buffer, format=fmt, metadata=_NO_DATES[fmt])
-    return buffer.getvalue()
+    return _picture(figure, fmt, rc_context)
 
 
 def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float, target: float, tolerance: float,
@@ -166,7 +171,4 @@ def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float
     axes.legend(loc="upper left", fontsize="small")
     if title:
         axes.set_title(title)
-    buffer = io.BytesIO()
-    with rc_context({"svg.hashsalt": _SALT, "svg.fonttype": "path"}):
-        figure.savefig(buffer, format=fmt, metadata=_NO_DATES[fmt])
-    return buffer.getvalue()
+    return _picture(figure, fmt, rc_context)

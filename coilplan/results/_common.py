@@ -48,11 +48,7 @@ def turns_block(form, *, turns: int | None, target: float | None, measured: Meas
         check_fits(form, int(turns))
         return {"turns": int(turns)}
     at_frequency = frequency is not None and has_frequency_model(form)
-    seen = ApparentForm(form, frequency) if at_frequency else form
-    if at_frequency and seen.max_turns() < float(form.min_turns()):
-        raise InfeasibleError(f"no number of turns works at {format_quantity(frequency, 'Hz')}: even "
-                              f"{form.limit_reason(1.0, lowest=True)} resonates by itself below it", option="--target")
-    solution = solve_turns(seen, target)
+    solution = solve_turns(ApparentForm(form, frequency) if at_frequency else form, target)
     result = {
         "target_H": float(target),
         "target_is_apparent": at_frequency,
