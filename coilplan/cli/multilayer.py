@@ -45,9 +45,8 @@ def multilayer(**options):
     """
 
     def make_form(wire):
-        form = MultilayerCoil(former_diameter=options["former"], width=options["width"], wire=wire,
+        return MultilayerCoil(former_diameter=options["former"], width=options["width"], wire=wire,
                               style=options["style"], packing=options["packing"], max_depth=options["max_depth"],
                               lead=options["lead"], method=options["method"])
-        return form
 
     run_model_coil("multilayer", make_form, multilayer_result, multilayer_lines, "multilayer coil", options)

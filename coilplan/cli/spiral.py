@@ -46,9 +46,8 @@ def spiral(**options):
         raise InvalidInputError("--spacing", "one of --spacing or --outer", None)
 
     def make_form(wire):
-        form = FlatSpiral(inner_diameter=options["inner"], wire=wire,
+        return FlatSpiral(inner_diameter=options["inner"], wire=wire,
                           spacing=0.0 if options["spacing"] is None else options["spacing"],
                           outer_diameter=options["outer"], lead=options["lead"], method=options["method"])
-        return form
 
     run_model_coil("spiral", make_form, spiral_result, spiral_lines, "flat spiral", options)

@@ -17,7 +17,7 @@ from coilplan.physics.frequency import knight_self_capacitance, multilayer_self_
 from coilplan.quantities import format_length
 from coilplan.wire import Wire
 
-__all__ = ["MULTILAYER_METHODS", "MultilayerCoil", "MultilayerMethod", "at_whole_turns"]
+__all__ = ["MULTILAYER_METHODS", "MultilayerCoil", "MultilayerMethod", "at_whole_turns", "outside_stated_range"]
 
 MultilayerMethod = Literal["filament", "wheeler-1928"]
 LayerStyle = Literal["layered", "staggered"]
@@ -44,6 +44,17 @@ def at_whole_turns(turns, value_at):
         values = np.array([value_at(int(n)) for n in flat]).reshape(turns.shape)
         return values[()] if turns.ndim == 0 else values
     return between_whole_turns(turns, value_at)
+
+
+def outside_stated_range(approximation, turns) -> bool:
+    """Whether ``approximation(turns)`` gives its own OutsideValidityWarning (caught, not shown).
+
+    The forms word that warning for the user; the physics function keeps the one statement of its range.
+    """
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always")
+        approximation(turns)
+    return any(issubclass(w.category, OutsideValidityWarning) for w in caught)
 
 
 #: Most turns and layers the exact filament sum takes on (its work grows as layers² × turns per
@@ -119,16 +130,15 @@ class MultilayerCoil:
     @property
     def layer_pitch(self) -> float:
         """Radial distance between layers, m (√3/2 of the pitch when staggered)."""
-        return self.pitch * (math.sqrt(3.0) / 2.0 if self.style == "staggered" else 1.0)
+        return multilayer.layer_pitch(self.pitch, self.style)
 
     def turns_per_layer(self) -> int:
         """Turns in a full (even-numbered) layer."""
-        return math.floor(self.width / self.pitch + 1e-9)
+        return multilayer.layer_turn_counts(self.width, self.pitch, self.style)[0]
 
     def _shifted_layer_turns(self) -> int:
-        if self.style == "staggered":
-            return math.floor(self.width / self.pitch - 0.5 + 1e-9)
-        return self.turns_per_layer()
+        """Turns in a full odd-numbered layer (one fewer when staggered and the width is whole pitches)."""
+        return multilayer.layer_turn_counts(self.width, self.pitch, self.style)[1]
 
     def _mean_layer_turns(self) -> float:
         return 0.5 * (self.turns_per_layer() + self._shifted_layer_turns())
@@ -260,14 +270,10 @@ class MultilayerCoil:
 
     def validity_warnings(self, turns: float) -> None:
         """Warn (OutsideValidityWarning) where the chosen method is outside its stated range."""
-        if self.method == "wheeler-1928":
-            with warnings.catch_warnings(record=True) as caught:
-                warnings.simplefilter("always")
-                self.wheeler_inductance(turns)
-            if any(issubclass(w.category, OutsideValidityWarning) for w in caught):
-                warnings.warn("Wheeler's multilayer formula is outside its stated range here (6a, 9b and 10c "
-                              "far from equal); expect several percent error; the filament method is exact",
-                              OutsideValidityWarning, stacklevel=2)
+        if self.method == "wheeler-1928" and outside_stated_range(self.wheeler_inductance, turns):
+            warnings.warn("Wheeler's multilayer formula is outside its stated range here (6a, 9b and 10c "
+                          "far from equal); expect several percent error; the filament method is exact",
+                          OutsideValidityWarning, stacklevel=2)
         if self.wire.diameter > 0.2 * self.former_diameter:
             warnings.warn("the wire is thick against the former (over a fifth of its diameter): the thin-ring "
                           "self-inductance of each turn loses accuracy", OutsideValidityWarning, stacklevel=2)

@@ -12,7 +12,7 @@ import numpy as np
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.forms._checks import positive
 from coilplan.forms._losses import winding_resistance_factor
-from coilplan.forms.multilayer import at_whole_turns
+from coilplan.forms.multilayer import at_whole_turns, outside_stated_range
 from coilplan.physics import multilayer
 from coilplan.quantities import format_length
 from coilplan.wire import Wire
@@ -89,6 +89,12 @@ class FlatSpiral:
         """Radial distance between turn centres, m."""
         return self.wire.overall_diameter + self.spacing
 
+    @property
+    def _centre_grid_start(self) -> float:
+        """r_0 of :func:`~coilplan.physics.multilayer.spiral_turn_radii`, m: half a pitch inside the
+        first turn's centre, so that the turn centres are r_0 + (k + 1/2)·pitch."""
+        return self.inner_diameter / 2.0 + self.wire.overall_diameter / 2.0 - self.radial_pitch / 2.0
+
     def depth(self, turns):
         """Radial width of the winding, m: N − 1 pitches plus one wire."""
         return (np.asarray(turns, dtype=float) - 1.0) * self.radial_pitch + self.wire.overall_diameter
@@ -158,15 +164,14 @@ class FlatSpiral:
         known = self._cache.get("inductances")
         if known is None or n > known.size:
             size = max(n, min(2 * (0 if known is None else known.size), EXACT_TURNS_LIMIT + 1))
-            inner = self.inner_diameter / 2.0 + self.wire.overall_diameter / 2.0 - self.radial_pitch / 2.0
-            known = multilayer.spiral_filament_inductances(inner, self.radial_pitch, self.wire.diameter, size)
+            known = multilayer.spiral_filament_inductances(self._centre_grid_start, self.radial_pitch,
+                                                           self.wire.diameter, size)
             self._cache["inductances"] = known
         return float(known[n - 1])
 
     def turn_radii(self, turns: int):
         """Radii of the turn centres, m."""
-        inner = self.inner_diameter / 2.0 + self.wire.overall_diameter / 2.0 - self.radial_pitch / 2.0
-        return multilayer.spiral_turn_radii(inner, self.radial_pitch, turns)
+        return multilayer.spiral_turn_radii(self._centre_grid_start, self.radial_pitch, turns)
 
     def wire_length(self, turns):
         """Wire to cut, m: Σ 2π r_k over the turns (closed form, float turns allowed) plus the leads."""
@@ -180,8 +185,8 @@ class FlatSpiral:
 
     def self_capacitance(self, turns):
         """Self-capacitance, F: adjacent-turn estimate (rough, up to a factor of two; see the physics)."""
-        inner = self.inner_diameter / 2.0 + self.wire.overall_diameter / 2.0 - self.radial_pitch / 2.0
-        return multilayer.spiral_self_capacitance(inner, self.radial_pitch, self.wire.diameter, turns)
+        return multilayer.spiral_self_capacitance(self._centre_grid_start, self.radial_pitch, self.wire.diameter,
+                                                  turns)
 
     def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
         """Resistance at ``frequency``, ohm: the one-layer proximity form at the radial pitch (labelled)."""
@@ -190,8 +195,7 @@ class FlatSpiral:
 
     def validity_warnings(self, turns: float) -> None:
         """Warn (OutsideValidityWarning) where the chosen method is outside its stated range."""
-        depth = float(turns) * self.radial_pitch
-        if self.method == "wheeler" and depth <= 0.2 * (self.inner_diameter / 2.0 + depth / 2.0):
+        if self.method == "wheeler" and outside_stated_range(self.wheeler_inductance, float(turns)):
             warnings.warn("Wheeler's flat-spiral formula is outside its stated range here (radial width "
                           "below 0.2 × mean radius); the filament method is exact", OutsideValidityWarning,
                           stacklevel=2)

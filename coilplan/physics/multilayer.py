@@ -40,10 +40,12 @@ from scipy.constants import epsilon_0, mu_0
 from scipy.special import ellipe, ellipkm1, elliprd
 
 from coilplan.errors import OutsideValidityWarning
-from coilplan.physics.loops import _maxwell_landen, coaxial_filaments_inductance, loop_self_inductance
+from coilplan.physics.loops import _as_float, _maxwell_landen, coaxial_filaments_inductance, loop_self_inductance
 
 __all__ = [
     "layer_grid_inductance",
+    "layer_pitch",
+    "layer_turn_counts",
     "layered_winding_layout",
     "multilayer_filament_inductance",
     "spiral_filament_inductance",
@@ -53,9 +55,6 @@ __all__ = [
     "wheeler_multilayer_inductance",
     "wheeler_spiral_inductance",
 ]
-
-#: The layer styles of :func:`layered_winding_layout`.
-_LAYER_STYLES = ("layered", "staggered")
 
 _INCH = 0.0254
 
@@ -67,11 +66,11 @@ _WHEELER_TERM_SPREAD = 2.0
 #: Wheeler's flat-spiral claim: within 5 % for c > 0.2 a (Pender & McIlwain).
 _SPIRAL_MIN_DEPTH_RATIO = 0.2
 
+#: Layer pitch over axial pitch for each layer style (square grid; hexagonal nesting).
 _LAYER_PITCH = {"layered": 1.0, "staggered": math.sqrt(3.0) / 2.0}
 
-
-def _as_float(x):
-    return np.asarray(x, dtype=float)
+#: Slack on the turns a width holds, so that a width of exactly n pitches holds n turns despite rounding.
+_WHOLE_PITCH_SLACK = 1e-9
 
 
 def wheeler_multilayer_inductance(mean_radius, length, depth, turns):
@@ -198,6 +197,51 @@ def wheeler_spiral_inductance(mean_radius, depth, turns):
     return L[()]
 
 
+def _check_style(style) -> None:
+    if style not in _LAYER_PITCH:
+        raise ValueError(f"style must be one of {', '.join(_LAYER_PITCH)}; got {style!r}")
+
+
+def layer_pitch(pitch, style="layered"):
+    r"""Radial distance between layers, :math:`h = p` (layered) or :math:`(\sqrt3/2)\,p` (staggered), m.
+
+    Geometry of touching circles of diameter :math:`p`: stacked on a square grid, or each nested
+    in the groove between two below (a hexagonal packing, centres at the corners of equilateral
+    triangles of side :math:`p`).
+
+    Examples
+    --------
+    >>> from coilplan.physics.multilayer import layer_pitch
+    >>> print(f"{layer_pitch(0.001, 'staggered') * 1e3:.4f} mm")
+    0.8660 mm
+    """
+    _check_style(style)
+    return _LAYER_PITCH[style] * pitch
+
+
+def layer_turn_counts(winding_width, pitch, style="layered"):
+    r"""Turns a full even layer and a full odd layer hold across ``winding_width`` at axial ``pitch``.
+
+    :math:`\lfloor W/p \rfloor` for both (layered), or :math:`\lfloor W/p \rfloor` and
+    :math:`\lfloor W/p - \tfrac12 \rfloor` (staggered: the odd layers start half a pitch in).
+
+    Returns
+    -------
+    full, shifted : int
+        Turns in layers 0, 2, 4 ... and in layers 1, 3, 5 ...
+
+    Examples
+    --------
+    >>> from coilplan.physics.multilayer import layer_turn_counts
+    >>> layer_turn_counts(0.0031, 0.001, "staggered")
+    (3, 2)
+    """
+    _check_style(style)
+    full = math.floor(winding_width / pitch + _WHOLE_PITCH_SLACK)
+    shifted = math.floor(winding_width / pitch - 0.5 + _WHOLE_PITCH_SLACK) if style == "staggered" else full
+    return full, shifted
+
+
 def layered_winding_layout(inner_radius, winding_width, wire_diameter, turns, *, style="layered", packing=1.0):
     r"""Per-layer layout of a layered winding: radii, axial offsets and turn counts.
 
@@ -247,17 +291,15 @@ def layered_winding_layout(inner_radius, winding_width, wire_diameter, turns, *,
     >>> counts.tolist()
     [3, 2, 2]
     """
-    if style not in _LAYER_PITCH:
-        raise ValueError(f"style must be one of {', '.join(_LAYER_STYLES)}; got {style!r}")
+    _check_style(style)
     if not packing >= 1.0:
         raise ValueError(f"packing must be at least 1; got {packing!r}")
     N = int(turns)
     if N < 1 or turns != N:
         raise ValueError(f"turns must be a whole number of at least 1; got {turns!r}")
     p = float(wire_diameter) * float(packing)
-    h = _LAYER_PITCH[style] * p
-    full = math.floor(winding_width / p + 1e-9)
-    shifted = math.floor(winding_width / p - 0.5 + 1e-9) if style == "staggered" else full
+    h = layer_pitch(p, style)
+    full, shifted = layer_turn_counts(winding_width, p, style)
     if full < 1 or shifted < 1:
         raise ValueError(f"winding_width must hold at least {'two' if style == 'staggered' else 'one'} "
                          f"turns of a layer; got {winding_width!r} m for a {p!r} m pitch")
@@ -509,7 +551,7 @@ def spiral_filament_inductances(inner_radius, radial_pitch, wire_diameter, turns
     return np.cumsum(rows)
 
 
-#: Rows of the pair triangle handled at once by :func:`_coplanar_pairs_sum` (bounds the temporaries).
+#: Rows of the pair triangle handled at once by :func:`_coplanar_row_sums` (bounds the temporaries).
 _COPLANAR_BLOCK = 256
 
 
@@ -578,10 +620,15 @@ def spiral_self_capacitance(inner_radius, radial_pitch, wire_diameter, turns, pe
     Notes
     -----
     A rough estimate (our derivation, no published accuracy; expect errors up
-    to a factor of two): :math:`c'` is the capacitance per length of two
-    parallel round wires, and with the voltage :math:`V/N` between adjacent
+    to a factor of two): :math:`c'` is the exact capacitance per length of two
+    parallel round wires in a uniform dielectric [Ramo1994]_, and with the voltage :math:`V/N` between adjacent
     turns the :math:`N - 1` gaps store :math:`\tfrac12 C_{self} V^2`.
     Capacitance between non-adjacent turns and to nearby objects is left out.
+
+    References
+    ----------
+    .. [Ramo1994] S. Ramo, J. R. Whinnery and T. Van Duzer, *Fields and Waves in
+       Communication Electronics*, 3rd ed., Wiley, 1994 (two parallel cylinders).
 
     Examples
     --------

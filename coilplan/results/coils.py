@@ -72,11 +72,11 @@ def multilayer_result(form: MultilayerCoil, *, turns: int | None = None, target:
 
     Raises
     ------
+    ValueError
+        Unless exactly one of ``turns`` and ``target`` is given (checked by ``turns_block``).
     InfeasibleError
         The target cannot be reached within the window, or the turns do not fit.
     """
-    if (turns is None) == (target is None):
-        raise ValueError("give exactly one of turns and target")
     result = turns_block(form, turns=turns, target=target, measured=measured, frequency=frequency)
     chosen = result["turns"]
     form.validity_warnings(chosen)
@@ -112,11 +112,10 @@ def spiral_result(form: FlatSpiral, *, turns: int | None = None, target: float |
         to ``turns``, ``depth_m`` the radial width, ``outer_diameter_m``,
         ``inner_diameter_m``, ``radial_pitch_m`` and ``spacing_m``.
     """
-    if (turns is None) == (target is None):
-        raise ValueError("give exactly one of turns and target")
     result = turns_block(form, turns=turns, target=target, measured=measured, frequency=frequency)
     chosen = result["turns"]
     form.validity_warnings(chosen)
+    outside = float(form.outside_diameter(chosen))
     result.update(
         layers=1,
         turns_per_layer=chosen,
@@ -124,9 +123,8 @@ def spiral_result(form: FlatSpiral, *, turns: int | None = None, target: float |
         radial_pitch_m=form.radial_pitch,
         spacing_m=form.spacing,
         depth_m=float(form.depth(chosen)),
-        outer_diameter_m=float(form.outside_diameter(chosen)),
-        fits=None if form.outer_diameter is None else bool(
-            float(form.outside_diameter(chosen)) <= form.outer_diameter * (1 + 1e-9)),
+        outer_diameter_m=outside,
+        fits=None if form.outer_diameter is None else bool(outside <= form.outer_diameter * (1 + 1e-9)),
     )
     if form.outer_diameter is not None:
         result["max_outer_diameter_m"] = form.outer_diameter
