@@ -10,14 +10,14 @@ from typing import Literal, get_args
 import numpy as np
 
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
-from coilplan.forms._checks import between_whole_turns, positive
+from coilplan.forms._checks import between_whole_turns, outside_stated_range, positive
 from coilplan.forms._losses import winding_resistance_factor
 from coilplan.physics import multilayer
 from coilplan.physics.frequency import knight_self_capacitance, multilayer_self_capacitance
 from coilplan.quantities import format_length
 from coilplan.wire import Wire
 
-__all__ = ["MULTILAYER_METHODS", "MultilayerCoil", "MultilayerMethod", "at_whole_turns", "outside_stated_range"]
+__all__ = ["MULTILAYER_METHODS", "MultilayerCoil", "MultilayerMethod"]
 
 MultilayerMethod = Literal["filament", "wheeler-1928"]
 LayerStyle = Literal["layered", "staggered"]
@@ -30,31 +30,6 @@ MULTILAYER_METHODS: dict[str, tuple[str, str]] = {
     "wheeler-1928": ("Wheeler 1928 multilayer formula (uniform current over the winding section)",
                      "about 1 % when 6a, 9b and 10c are about equal (Wheeler); several percent otherwise"),
 }
-
-
-def at_whole_turns(turns, value_at):
-    """``value_at`` at whole turns (one costly sum each), linear between them for the root finder.
-
-    The same values as :func:`coilplan.forms._checks.between_whole_turns`, which at a whole N
-    also evaluates N + 1 (multiplied by a zero fraction): that doubled the cost of every answer.
-    """
-    turns = np.asarray(turns, dtype=float)
-    flat = np.atleast_1d(turns).ravel()
-    if flat.size and np.all((flat == np.floor(flat)) & (flat >= 1)):
-        values = np.array([value_at(int(n)) for n in flat]).reshape(turns.shape)
-        return values[()] if turns.ndim == 0 else values
-    return between_whole_turns(turns, value_at)
-
-
-def outside_stated_range(approximation, turns) -> bool:
-    """Whether ``approximation(turns)`` gives its own OutsideValidityWarning (caught, not shown).
-
-    The forms word that warning for the user; the physics function keeps the one statement of its range.
-    """
-    with warnings.catch_warnings(record=True) as caught:
-        warnings.simplefilter("always")
-        approximation(turns)
-    return any(issubclass(w.category, OutsideValidityWarning) for w in caught)
 
 
 #: Most turns and layers the exact filament sum takes on (its work grows as layers² × turns per
@@ -227,7 +202,7 @@ class MultilayerCoil:
 
     def exact_inductance(self, turns):
         """The filament sum, H, at whole turns; linear between whole numbers for the root finder."""
-        return at_whole_turns(turns, self._whole)
+        return between_whole_turns(turns, self._whole)
 
     def wire_length(self, turns):
         """Wire to cut, m: each turn 2π × its layer's radius, plus a lead at each end."""

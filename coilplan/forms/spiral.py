@@ -10,9 +10,8 @@ from typing import Literal, get_args
 import numpy as np
 
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
-from coilplan.forms._checks import positive
+from coilplan.forms._checks import between_whole_turns, outside_stated_range, positive
 from coilplan.forms._losses import winding_resistance_factor
-from coilplan.forms.multilayer import at_whole_turns, outside_stated_range
 from coilplan.physics import multilayer
 from coilplan.quantities import format_length
 from coilplan.wire import Wire
@@ -147,7 +146,7 @@ class FlatSpiral:
         """The filament sum, H, at whole turns; linear between whole numbers for the root finder."""
         with warnings.catch_warnings():
             warnings.simplefilter("ignore", OutsideValidityWarning)
-            return at_whole_turns(turns, self._whole)
+            return between_whole_turns(turns, self._whole)
 
     def wheeler_inductance(self, turns):
         """Wheeler's value, H, on the sheet: radial width c = N·s, mean radius inner + c/2."""
