@@ -14,6 +14,7 @@ from coilplan.kit import PlanFileError, parse_plan, plan_kit
 from coilplan.kit.assign import evaluate_plan
 from coilplan.kit.optimise import cost_levels, first_fit_decreasing, optimise
 from coilplan.kit.outputs import bom_csv, card_files, kit_document, result_fields, summary_lines
+from coilplan.quantities import format_quantity
 from coilplan.solve import solve_turns
 
 REEL = '[[reel]]\nwire = "0.3mm"\nlength = "100m"\n'
@@ -54,6 +55,12 @@ GOOD = coil("bfo", 2, "10uH") + former("tube", 3, "12mm", "40mm") + REEL
     pytest.param("[[coil]\nname = 1", ["plan.toml, line 1:", "not a TOML plan"], id="not-toml"),
     pytest.param('[settings]\nlead = "2cm"\npacking = 0.9\ntemperature = "40"\n' + GOOD,
                  ["plan.toml, line 4:", "settings: temperature:", "'40'"], id="settings-field"),
+    pytest.param(GOOD.replace('length = "100m"', "length = -3.0"),
+                 ["plan.toml, line 12:", "reel[1]: length:", "written as text with its unit", "(got -3.0)"],
+                 id="bare-number"),
+    pytest.param(GOOD.replace("count = 3", "count = 100000"),
+                 ["plan.toml:", "count: expected at most 4000 pieces of stock", "(this one has 100000)"],
+                 id="too-many-units"),
 ])
 def test_malformed_plan_names_file_line_entry_and_field(text, fragments):
     """Each malformed plan is refused with one line naming the file, the line, the entry and the field."""
@@ -202,16 +209,7 @@ def test_share_out_is_optimal_against_brute_force():
         else:
             assert core.bound <= best[:2]
             core_cases += 1
-        # the solution itself keeps to the counts and the reels
-        reels = _reels(plan, evaluation)
-        used_stock = [0] * len(evaluation.stock)
-        used_reel = [0.0] * len(reels)
-        for (o, r), units in solution.cuts.items():
-            assert evaluation.flat[o].wire == reels[r][0]
-            used_stock[evaluation.flat[o].stock] += units
-            used_reel[r] += units * evaluation.flat[o].wire_length
-        assert all(used <= item.count for used, item in zip(used_stock, evaluation.stock, strict=True))
-        assert all(used <= length + 1e-9 for used, (_, length) in zip(used_reel, reels, strict=True))
+        _keeps_to_counts_and_reels(plan, evaluation, solution)
         methods[solution.method] += 1
         wire_bound += int(solution.objective[0] > solution.stock_only_unplaced)
         q_levels += int(levels[2].max(initial=0) > 0)
@@ -344,8 +342,6 @@ def test_winding_card_holds_the_turns_and_inductance(planned):
     for p in fields["placements"]:
         card = cards[f"card-{p['coil']}.html"]
         assert f"{p['turns']} turns" in card
-        from coilplan.quantities import format_quantity
-
         assert format_quantity(p["meter_inductance_H"], "H") in card
         svg = card[card.index("<svg"):card.index("</svg>") + 6]
         ET.fromstring(svg)

@@ -317,14 +317,19 @@ def _svg_of(card: str):
     return svg, ET.fromstring(svg)
 
 
+def _drawn_to_scale(card: str, fill: str, width_m: float, height_m: float) -> None:
+    """The card's first rectangle of ``fill`` is ``width_m`` by ``height_m`` at the stated scale (to a pixel)."""
+    svg, root = _svg_of(card)
+    scale = _scale(svg)
+    shape = next(r for r in _rects(root) if r.get("fill") == fill)
+    assert float(shape.get("width")) == pytest.approx(width_m * 1e3 * scale, abs=1.0)
+    assert float(shape.get("height")) == pytest.approx(height_m * 1e3 * scale, abs=1.0)
+
+
 def test_rod_card_draws_the_rod_to_scale(mixed_cards):
     """The rod's rectangle is its length and diameter at the stated scale (to a pixel)."""
     p, card = mixed_cards["loop"]
-    svg, root = _svg_of(card)
-    scale = _scale(svg)
-    body = next(r for r in _rects(root) if r.get("fill") == "#555")
-    assert float(body.get("width")) == pytest.approx(p["rod_length_m"] * 1e3 * scale, abs=1.0)
-    assert float(body.get("height")) == pytest.approx(p["rod_diameter_m"] * 1e3 * scale, abs=1.0)
+    _drawn_to_scale(card, "#555", p["rod_length_m"], p["rod_diameter_m"])
     assert f"{p['turns']} turns" in card and "tap, turn" in card
 
 
@@ -345,11 +350,8 @@ def test_gapped_card_draws_the_window_and_layers_to_scale(mixed_cards):
 def test_bobbin_card_draws_the_bobbin_to_scale(mixed_cards):
     """The bobbin's core is its width and diameter at the stated scale; the layers are drawn above and below."""
     p, card = mixed_cards["rfc"]
-    svg, root = _svg_of(card)
-    scale = _scale(svg)
-    core = next(r for r in _rects(root) if r.get("fill") == "#eee")
-    assert float(core.get("width")) == pytest.approx(p["bobbin_width_m"] * 1e3 * scale, abs=1.0)
-    assert float(core.get("height")) == pytest.approx(p["bobbin_diameter_m"] * 1e3 * scale, abs=1.0)
+    _drawn_to_scale(card, "#eee", p["bobbin_width_m"], p["bobbin_diameter_m"])
+    root = _svg_of(card)[1]
     assert len([r for r in _rects(root) if r.get("fill") == "#b45f06"]) == 2 * p["layers"]
     assert "tap, turn 10" in card
 

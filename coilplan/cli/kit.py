@@ -58,12 +58,11 @@ def kit(plan_file, out, force, as_json):
     """
     from coilplan.kit import load_plan, plan_kit
     from coilplan.kit.outputs import kit_document, result_fields, summary_lines
+    from coilplan.kit.plan import STOCK_FORMS
 
     plan = load_plan(plan_file)
     if out is not None and out.exists() and not out.is_dir():
         raise InvalidInputError("--out", "a folder", str(out))
-    from coilplan.kit.plan import STOCK_FORMS
-
     stock = sum(len(getattr(plan, kind)) for kind in STOCK_FORMS)
     work = sum(PAIR_WEIGHT.get(kind, 1) * len(getattr(plan, kind)) for kind in STOCK_FORMS)
     if len(plan.coil) * work > PROGRESS_PAIRS and not as_json:

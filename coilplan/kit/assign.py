@@ -219,7 +219,7 @@ def _with_wire(label: str, reason) -> str:
     return f"with {label}: {_text(reason)}"
 
 
-def _solve_on_form(form, targets, frequency, tolerance, current, settings, drift=None):
+def _solve_on_form(form, targets, frequency, tolerance, current, drift=None):
     """Turns and figures for every coil on one form; (arrays, reasons) with NaN turns where rejected.
 
     ``drift`` (per coil) is the core's L(f)/L(0) at each coil's frequency: the low-frequency target is
@@ -369,7 +369,7 @@ def _evaluate(plan, progress) -> Evaluation:
             spectrum = core_spectrum(item, form)
             drift = None if spectrum is None else core_drift(form, spectrum, frequency[chosen])
             turns, why, extra = _solve_on_form(form, targets[chosen], frequency[chosen], tolerance[chosen],
-                                               current[chosen], settings, drift)
+                                               current[chosen], drift)
             if extra is not None:
                 good = ~np.isin(extra["where"], np.fromiter(why, dtype=np.int64, count=len(why)))
                 taps, tap_why = _taps(coils, tapped, chosen[extra["where"]], turns[extra["where"]])
@@ -387,14 +387,14 @@ def _evaluate(plan, progress) -> Evaluation:
             length = np.asarray(form.wire_length(n), dtype=float) * (1.0 + settings.wire_margin)
             f = frequency[chosen][local]
             safe_f = np.where(f > 0, f, 1.0)
+            lows = np.asarray(form.inductance(n), dtype=float)
             with np.errstate(divide="ignore", invalid="ignore"):
                 resistance = np.asarray(form.ac_resistance(n, safe_f, settings.temperature_C))
-                own = np.asarray(form.inductance(n), dtype=float)
+                own = lows
                 if spectrum is not None:  # the core's µ' and its own loss at each coil's frequency
-                    own = own * drift[local]
+                    own = lows * drift[local]
                     resistance = resistance + core_resistance_batch(form, spectrum, own, safe_f)
                 q = np.where(f > 0, q_factor(own, resistance, safe_f), np.nan)
-            lows = np.asarray(form.inductance(n), dtype=float)
             q_term = np.where(np.isfinite(q), 1.0 / (1.0 + q), 0.0)
             found.append((chosen[local], np.full(local.size, w), n, lows, extra["apparent"][good], length,
                           extra["closeness"][good], q_term, q, taps[good]))

@@ -390,10 +390,8 @@ def _milp(plan: _Plan, seconds: float = TIME_LIMIT_S, gap: float = 0.0):
     """(cuts, proven, folded lower bound) of the full program: coils left out first, then the folded levels."""
     program = _program(plan)
     cuts = program.option.size
-    w_wire, w_close, w_q, _ = plan.weights
-    folded = (plan.levels[0] * w_wire + plan.levels[1] * w_close + plan.levels[2] * w_q).astype(float)
     objectives = [np.concatenate([np.zeros(cuts), np.ones(program.coils)]),
-                  np.concatenate([folded[program.option], np.zeros(program.coils)])]
+                  np.concatenate([plan.cost[program.option], np.zeros(program.coils)])]
     x, proven, lower = _solve_in_turn(program, objectives, seconds=seconds, gap=gap)
     if not lower:
         bound = -math.inf

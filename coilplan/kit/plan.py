@@ -37,6 +37,7 @@ core with its bobbin) layers of turns round its centre leg, and a bobbin a multi
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 import tomllib
@@ -74,6 +75,10 @@ FORMS = tuple(STOCK_FORMS.values())
 
 FormName = Literal["solenoid", "toroid", "rod", "gapped", "multilayer"]
 
+#: Coil units (and, apart, stock units) a plan may hold: the share-out matches unit to unit, a matrix of
+#: coil units × stock units (4000 × 4000 float64 is 128 MB and about two seconds).
+MAX_UNITS = 4000
+
 #: A tolerance when the plan gives none: ±5 % on the inductance (common practice, no source).
 DEFAULT_TOLERANCE = 0.05
 
@@ -108,39 +113,35 @@ def _text_of(value, what: str, example: str) -> str:
     return value
 
 
+def _checked(parse, *args, **kwargs):
+    """``parse(*args, **kwargs)``, its :class:`InvalidInputError` turned into pydantic's ``ValueError``."""
+    try:
+        return parse(*args, **kwargs)
+    except InvalidInputError as error:
+        raise ValueError(f"expected {error.expected}") from None
+
+
+def _read_text(parse, what: str, example: str):
+    """A validator reading the user's text with ``parse``.
+
+    Only what the file gives is validated (pydantic leaves the defaults, already SI, alone), so a bare
+    number, which would carry no unit, is refused like any other value not written as text.
+    """
+
+    def read(value):
+        return _checked(parse, _text_of(value, what, example))
+
+    return read
+
+
 def _quantity(unit: str, what: str, example: str, *, allow_zero: bool = False):
     """A field read from the user's text in ``unit`` (SI float after validation)."""
-
-    def parse(value):
-        if isinstance(value, float) and not isinstance(value, bool):
-            return value  # a default, already SI
-        text = _text_of(value, what, example)
-        try:
-            return parse_quantity(text, unit, allow_zero=allow_zero)
-        except InvalidInputError as error:
-            raise ValueError(f"expected {error.expected}") from None
-
-    return Annotated[float, BeforeValidator(parse)]
+    return Annotated[float, BeforeValidator(_read_text(
+        functools.partial(parse_quantity, unit=unit, allow_zero=allow_zero), what, example))]
 
 
-def _relative(value):
-    if isinstance(value, float):
-        return value
-    text = _text_of(value, "a relative value", "5%")
-    try:
-        return parse_relative(text)
-    except InvalidInputError as error:
-        raise ValueError(f"expected {error.expected}") from None
-
-
-def _temperature(value):
-    if isinstance(value, float):
-        return value
-    text = _text_of(value, "a temperature", "40C")
-    try:
-        return parse_temperature(text)
-    except InvalidInputError as error:
-        raise ValueError(f"expected {error.expected}") from None
+_relative = _read_text(parse_relative, "a relative value", "5%")
+_temperature = _read_text(parse_temperature, "a temperature", "40C")
 
 
 def _count(value):
@@ -157,17 +158,12 @@ _REEL_NUMBER = re.compile(r"^\s*(\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?\s*(.*)$
 
 def _reel_length(value):
     """A reel's length, SI: the number times the unit, the unit read by parse_quantity from a thousandth of it."""
-    if isinstance(value, float):
-        return value
     text = _text_of(value, "a length", "250m")
     match = _REEL_NUMBER.match(text)
     expected = "a reel length such as 250m (from 1 mm to 100 km)"
     if match is None or not match.group(3).strip():
         raise ValueError(f"expected {expected}")
-    try:
-        per_unit = parse_quantity("0.001" + match.group(3).strip(), "m") * 1000.0  # metres in one of the unit
-    except InvalidInputError as error:
-        raise ValueError(f"expected {error.expected}") from None
+    per_unit = _checked(parse_quantity, "0.001" + match.group(3).strip(), "m") * 1000.0  # metres in one unit
     length = float(match.group(1)) * 10.0 ** int(match.group(2) or 0) * per_unit
     if not (math.isfinite(length) and REEL_RANGE[0] <= length <= REEL_RANGE[1]):
         raise ValueError(f"expected {expected}")
@@ -194,10 +190,7 @@ def _readings(value):
     readings = []
     for item in items:
         text = _text_of(item, "a reading inductance@turns", "12uH@20")
-        try:
-            readings.append(parse_measurement(text, "measured"))
-        except InvalidInputError as error:
-            raise ValueError(f"expected {error.expected}") from None
+        readings.append(_checked(parse_measurement, text, "measured"))
     if len({turns for _, turns in readings}) != len(readings):
         raise ValueError("expected one reading per turn count (average repeated readings first)")
     return tuple(readings)
@@ -206,19 +199,13 @@ def _readings(value):
 def _material_name(name: str) -> str:
     from coilplan.materials import material
 
-    try:
-        return material(name).name
-    except InvalidInputError as error:
-        raise ValueError(f"expected {error.expected}") from None
+    return _checked(material, name).name
 
 
 def _wire_text(text: str) -> str:
     from coilplan.wire import parse_wire
 
-    try:
-        parse_wire(text, option="wire")
-    except InvalidInputError as error:
-        raise ValueError(f"expected {error.expected}") from None
+    _checked(parse_wire, text, option="wire")
     return text
 
 
@@ -466,6 +453,12 @@ class Plan(_Record):
         repeated = sorted({name for name in names if names.count(name) > 1})
         if repeated:
             raise ValueError(f"coil names must differ; repeated: {', '.join(repeated)}")
+        coils = sum(coil.count for coil in self.coil)
+        stock = sum(item.count for kind in STOCK_FORMS for item in getattr(self, kind))
+        for what, units in (("coils", coils), ("pieces of stock", stock)):
+            if units > MAX_UNITS:
+                raise ValueError(f"count: expected at most {MAX_UNITS} {what} in one plan (this one has {units}); "
+                                 f"split it into smaller plans")
         return self
 
 
