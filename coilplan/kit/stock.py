@@ -30,6 +30,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from coilplan.calibrate import ScaledForm
+from coilplan.errors import InvalidInputError
 from coilplan.forms import GappedCore, MultilayerCoil, RodCoil, Solenoid, Toroid
 from coilplan.kit.plan import STOCK_FORMS
 from coilplan.quantities import format_length, format_quantity
@@ -131,7 +132,11 @@ def rod_scale(spec, settings) -> float | None:
     if settings.meter_frequency is not None:  # the winding's own capacitance at the meter, as calibrate_form does
         capacitance = float(form.self_capacitance(readings[-1][1]))
         conditions = dataclasses.replace(conditions, self_capacitance=capacitance, self_capacitance_estimated=True)
-    return model_fit(form, low_frequency_readings(readings, conditions)).value
+    try:
+        low = low_frequency_readings(readings, conditions)
+    except InvalidInputError as error:  # the plan has no --meter-freq: name its own setting
+        raise InvalidInputError("settings.meter_frequency", error.expected, error.got) from None
+    return model_fit(form, low).value
 
 
 def stock_items(plan) -> list[StockItem]:

@@ -267,3 +267,38 @@ def test_a_cored_coil_in_a_kit_has_the_core_loss_and_drift_the_form_command_give
     candidate = plan_kit(parse_plan(CORED)).placements[0].candidate
     assert candidate.q == pytest.approx(placed["q"], rel=2e-3)
     assert candidate.apparent_inductance == pytest.approx(placed["apparent_inductance_H"], rel=1e-5)  # small-R limit
+
+
+ROD_READ_NEAR_RESONANCE = """
+[settings]
+meter_frequency = "100MHz"
+
+[[coil]]
+name = "aerial"
+count = 1
+target = "200uH"
+forms = ["rod"]
+
+[[rod]]
+name = "rod-10"
+length = "100mm"
+diameter = "10mm"
+material = "nizn-125"
+count = 1
+measured = ["180uH@50"]
+measured_wire = "0.2mm"
+
+[[reel]]
+wire = "0.2mm"
+length = "20m"
+"""
+
+
+def test_a_rod_reading_near_self_resonance_names_the_plan_setting(tmp_path):
+    """180 µH read at 100 MHz on a winding of about 1.2 pF is at 99 % of its self-resonance: refused, naming the
+    plan's own setting (the kit has no --meter-freq option)."""
+    plan = tmp_path / "plan.toml"
+    plan.write_text(ROD_READ_NEAR_RESONANCE, encoding="utf-8")
+    result = run("kit", plan)
+    one_line_error(result, 2, "settings.meter_frequency", "self-resonance")
+    assert "--meter-freq" not in result.stderr
