@@ -12,7 +12,7 @@ from coilplan.quantities import format_quantity
 from coilplan.rewind import Conditions, Fit, rewind_fields
 from coilplan.solve import solve_turns
 
-__all__ = ["Measured", "check_fits", "given_capacitance", "turns_block"]
+__all__ = ["Measured", "check_fits", "given_capacitance", "turns_block", "wire_fields"]
 
 
 @dataclass(frozen=True)
@@ -80,3 +80,9 @@ def check_fits(form, turns: int) -> None:
         largest = float(form.inductance(float(whole))) if whole >= 1 else math.nan
         raise InfeasibleError(f"{turns} turns do not fit: {form.limit_reason(limit)} "
                               f"(at most {format_quantity(largest, 'H')})", option="--turns")
+
+
+def wire_fields(wire) -> dict:
+    """The wire of an answer, as result fields: label, bare and overall diameter (m), enamel grade."""
+    return {"label": wire.label, "diameter_m": wire.diameter, "overall_diameter_m": wire.overall_diameter,
+            "grade": wire.grade}

@@ -8,7 +8,7 @@ import warnings
 from coilplan.apparent import frequency_fields
 from coilplan.errors import OutsideValidityWarning
 from coilplan.forms import MULTILAYER_METHODS, SPIRAL_METHODS, FlatSpiral, MultilayerCoil
-from coilplan.results._common import Measured, turns_block
+from coilplan.results._common import Measured, turns_block, wire_fields
 from coilplan.results._common import given_capacitance as _given_capacitance
 
 __all__ = ["multilayer_result", "spiral_result"]
@@ -19,11 +19,6 @@ def _quiet(function, *args) -> float:
     with warnings.catch_warnings():
         warnings.simplefilter("ignore", OutsideValidityWarning)
         return float(function(*args))
-
-
-def _wire_fields(form) -> dict:
-    return {"label": form.wire.label, "diameter_m": form.wire.diameter,
-            "overall_diameter_m": form.wire.overall_diameter, "grade": form.wire.grade}
 
 
 def _common(form, result: dict, chosen: int, temperature_C: float, frequency, measured, methods) -> None:
@@ -44,7 +39,7 @@ def _common(form, result: dict, chosen: int, temperature_C: float, frequency, me
         model_factor=factor,
         method_note=methods[form.method][0],
         method_accuracy=methods[form.method][1],
-        wire=_wire_fields(form),
+        wire=wire_fields(form.wire),
     )
     result.update(frequency_fields(form, chosen, frequency, temperature_C, _given_capacitance(measured)))
     limit = form.fit_turns()  # what the window or outer diameter holds (not the exact method's own cap)

@@ -15,7 +15,7 @@ from coilplan.cautions import (
     salvaged_mains_caution,
 )
 from coilplan.forms import GappedCore, Toroid
-from coilplan.results._common import Measured, turns_block
+from coilplan.results._common import Measured, turns_block, wire_fields
 from coilplan.results._common import given_capacitance as _given_capacitance
 from coilplan.saturation import saturation_check
 
@@ -74,8 +74,7 @@ def _winding_fields(form, turns: int, temperature_C: float) -> dict:
         "dc_resistance_ohm": float(form.resistance(turns, 20.0)),
         "temperature_C": float(temperature_C),
         "dc_resistance_at_temperature_ohm": float(form.resistance(turns, temperature_C)),
-        "wire": {"label": form.wire.label, "diameter_m": form.wire.diameter,
-                 "overall_diameter_m": form.wire.overall_diameter, "grade": form.wire.grade},
+        "wire": wire_fields(form.wire),
     }
 
 

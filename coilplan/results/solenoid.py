@@ -7,7 +7,7 @@ import math
 from coilplan.apparent import frequency_fields
 from coilplan.forms import SOLENOID_METHODS, Solenoid
 from coilplan.physics.solenoid import nagaoka_coefficient
-from coilplan.results._common import Measured, turns_block
+from coilplan.results._common import Measured, turns_block, wire_fields
 from coilplan.results._common import given_capacitance as _given_capacitance
 
 __all__ = ["solenoid_result"]
@@ -79,12 +79,7 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
         model_factor=getattr(form, "factor", 1.0),
         method_note=SOLENOID_METHODS[form.method][0],
         method_accuracy=SOLENOID_METHODS[form.method][1],
-        wire={
-            "label": form.wire.label,
-            "diameter_m": form.wire.diameter,
-            "overall_diameter_m": form.wire.overall_diameter,
-            "grade": form.wire.grade,
-        },
+        wire=wire_fields(form.wire),
     )
     result.update(frequency_fields(form, chosen, frequency, temperature_C, _given_capacitance(measured)))
     result["medhurst_self_capacitance_F"] = float(form.medhurst_self_capacitance(chosen))
