@@ -31,6 +31,7 @@ import numpy as np
 from coilplan.errors import InfeasibleError, InvalidInputError
 from coilplan.physics.frequency import self_resonant_frequency
 from coilplan.quantities import format_quantity
+from coilplan.request import DEFAULT_TOLERANCE
 from coilplan.solve import solve_turns
 
 __all__ = [
@@ -46,12 +47,10 @@ __all__ = [
     "low_frequency_inductance",
     "low_frequency_readings",
     "model_fit",
+    "scale_fit",
     "rewind_fields",
 ]
 
-#: Meter accuracy assumed when none is given: ±1 % of reading, typical of a bench LCR meter's basic
-#: accuracy at its test frequency (common practice, no source; give your meter's figure with --tolerance).
-DEFAULT_TOLERANCE = 0.01
 #: Above this fraction of the self-resonant frequency the apparent inductance departs noticeably from
 #: L (by about 1/(1 − x²): 12 % at a third of the SRF). Common practice, no source.
 SRF_FRACTION = 1.0 / 3.0
@@ -167,7 +166,7 @@ def low_frequency_readings(readings, conditions: Conditions) -> list[tuple[float
         fraction = conditions.meter_frequency / float(self_resonant_frequency(low, conditions.self_capacitance))
         if fraction > UNUSABLE_SRF_FRACTION:
             raise InvalidInputError(
-                "--meter-freq", "a test frequency well below the coil's self-resonance: "
+                "meter_frequency", "a test frequency well below the coil's self-resonance: "
                 f"{format_quantity(value, 'H')} at {turns} turns read at "
                 f"{format_quantity(conditions.meter_frequency, 'Hz')} puts it at "
                 f"{fraction:.1%} of its self-resonance with {format_quantity(conditions.self_capacitance, 'F')}, "
@@ -479,15 +478,27 @@ def closed_core_fit(readings, *, offset: bool = False) -> Fit:
 
 
 def model_fit(form, readings) -> Fit:
-    r"""Fit a scale factor k on ``form``'s model: min Σ((L_i − k·L_m(N_i))/L_i)².
+    r"""Fit a scale factor k on ``form``'s model: min Σ((L_i − k·L_m(N_i))/L_i)² (see :func:`scale_fit`).
 
     The model's shape (how L changes as the winding grows and moves on the rod or former)
     is kept; its level is set by the readings.
     """
+    turns = np.array([count for _, count in readings], dtype=float)
+    return scale_fit(readings, np.asarray(form.inductance(turns), dtype=float))
+
+
+def scale_fit(readings, model) -> Fit:
+    r"""Fit a scale factor k to readings against their model values: min Σ((L_i − k·m_i)/L_i)².
+
+    .. math::
+
+        k = \frac{\sum m_i/L_i}{\sum m_i^2/L_i^2}
+
+    ``model`` holds each reading's model value, each from the winding the reading was taken on.
+    """
     check_readings(readings)
     inductance = np.array([value for value, _ in readings], dtype=float)
-    turns = np.array([count for _, count in readings], dtype=float)
-    model = np.asarray(form.inductance(turns), dtype=float)
+    model = np.asarray(model, dtype=float)
     factor = float(np.sum(model / inductance) / np.sum(model**2 / inductance**2))
     residuals = (inductance - factor * model) / inductance
     return Fit("scale", factor, tuple(float(r) for r in residuals), _scatter(residuals))

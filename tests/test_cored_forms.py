@@ -52,9 +52,12 @@ def test_toroid_al_from_permeability_is_iec_60205():
 
 
 def test_toroid_needs_a_core_and_a_hole_the_wire_passes():
-    """No permeability and no AL, or a wire too thick for the hole, is refused naming the option."""
-    with pytest.raises(InvalidInputError, match="--mu"):
-        ring(mu_r=None)
+    """No permeability, no AL and no reading, or a wire too thick for the hole, is refused naming the field."""
+    from coilplan.design import design
+    from coilplan.request import Request
+
+    with pytest.raises(InvalidInputError, match="mu"):
+        design(ring(mu_r=None), Request(turns=10))
     with pytest.raises(InvalidInputError, match="--wire"):
         ring(inner_diameter=1.0e-3, wire=parse_wire("0.8mm"))
 

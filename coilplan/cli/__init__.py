@@ -68,7 +68,9 @@ class _CoilplanGroup(click.Group):
             where = error.ctx.command_path if error.ctx else "coilplan"
             code = _fail(f"{error.format_message()} (see '{where} --help')", 2)
         except InvalidInputError as error:
-            code = _fail(str(error), 2)
+            from coilplan.cli._fields import in_option_words
+
+            code = _fail(str(in_option_words(error)), 2)
         except InfeasibleError as error:
             code = _fail(f"cannot be done: {error}", 1)
         except click.ClickException as error:

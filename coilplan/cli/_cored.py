@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import functools
-import math
 from dataclasses import dataclass
 
 import click
@@ -12,7 +11,7 @@ from coilplan.cli._types import CountType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_quantity, parse_loss_factor, parse_measurement, parse_q_reading
 
-__all__ = ["CoreChoice", "core_at_frequency", "core_options", "drive_arguments", "finish_cored", "resolve_core"]
+__all__ = ["CoreChoice", "core_facts", "core_options", "drive_of", "resolve_core"]
 
 LENGTH = QuantityType("m")
 
@@ -129,94 +128,17 @@ def resolve_core(*, mu, material, al, measured, bsat, temperature, allow_gap=Fal
     return CoreChoice(mu_r, al, limit, chosen.name if chosen is not None else None, basis)
 
 
-def drive_arguments(current, ac_current, ac_voltage, frequency) -> dict:
-    """The drive keywords for the result builders, checked."""
-    if ac_voltage is not None and frequency is None:
-        raise InvalidInputError("--at", "the operating frequency that goes with --ac-voltage", None)
-    if ac_voltage is not None and ac_current:
-        raise InvalidInputError("--ac-voltage", "either --ac-voltage or --ac-current, not both", None)
-    return {"dc_current": current, "ac_current": ac_current, "ac_voltage": ac_voltage, "frequency": frequency}
+def drive_of(options: dict):
+    """The drive (:class:`coilplan.request.Drive`) the options give."""
+    from coilplan.request import Drive
+
+    return Drive(dc_current=options["current"], ac_current=options["ac_current"], ac_voltage=options["ac_voltage"],
+                 flux_limit=options.get("max_flux"))
 
 
-def core_at_frequency(form, core: CoreChoice, *, mu: float | None, loss_factor, frequency, reference_frequency,
-                      measured_q=None, readings=None, temperature_C: float = 20.0):
-    """``form`` with its core's µ' and loss at the operating ``frequency``, when the core's material is known.
+def core_facts(options: dict, core: CoreChoice):
+    """What the options say of the core's material (:class:`coilplan.request.CoreFacts`)."""
+    from coilplan.request import CoreFacts
 
-    The material is known from --material (its class's dispersion), --loss-factor, or a Q the
-    meter read on the test winding (--measured-q, which gives the loss factor at the meter's
-    frequency: :func:`coilplan.core_frequency.loss_factor_from_q`). The form is calibrated at
-    ``reference_frequency`` (the meter's, for readings; else 0, the class's low-frequency µi).
-    Without any of them, or without --at, the form comes back as it is.
-    """
-    if measured_q is not None:
-        if loss_factor is not None:
-            raise InvalidInputError("--measured-q", "either --measured-q or --loss-factor, not both", None)
-        if not readings:
-            raise InvalidInputError("--measured-q", "a --measured L@N reading too: the Q belongs to that winding",
-                                    None)
-    if frequency is None or mu is None or mu <= 1.0:
-        return form
-    if core.material_name is None and loss_factor is None and measured_q is None:
-        return form
-    import warnings
-
-    from coilplan.core_frequency import CoreSpectrum, at_frequency, loss_factor_from_q
-    from coilplan.errors import MeasurementWarning, OutsideValidityWarning
-    from coilplan.materials import material as find_material
-    from coilplan.materials import material_dispersion
-
-    dispersion = material_dispersion(core.material_name) if core.material_name is not None else None
-    if core.material_name is not None:
-        usual = find_material(core.material_name).frequency_range
-        high = usual[1] if usual is not None else None
-        if high is not None and frequency > high:
-            warnings.warn(f"{format_quantity(frequency, 'Hz')} is above the usual range of {core.material_name} "
-                          f"(up to {format_quantity(high, 'Hz')}): its permeability and loss there are far from "
-                          f"typical, and the core's figures are only an indication", OutsideValidityWarning,
-                          stacklevel=2)
-    reference = reference_frequency or 0.0
-    if measured_q is not None:
-        q_value, q_frequency = measured_q
-        turns = int(readings[-1][1])
-        probe = at_frequency(form, CoreSpectrum(mu=mu, reference_frequency=reference, dispersion=dispersion,
-                                                loss_factor=1e-6, loss_factor_frequency=q_frequency), q_frequency)
-        if probe is form:
-            return form
-        copper = float(form.ac_resistance(turns, q_frequency, temperature_C))
-        found = loss_factor_from_q(q_value, q_frequency, float(probe.inductance(turns)), copper, probe.dilution,
-                                   probe.spectrum.mu_low_frequency)
-        if found is None:
-            copper_q = 2 * math.pi * q_frequency * float(probe.inductance(turns)) / copper
-            fallback = (f"the typical loss of {core.material_name} is used" if dispersion is not None
-                        else "it is left out")
-            warnings.warn(f"the Q reading {q_value:g} at {format_quantity(q_frequency, 'Hz')} is at or above the "
-                          f"copper's alone ({copper_q:.0f} by the model): the core's loss is too small to tell from "
-                          f"it, and {fallback}", MeasurementWarning, stacklevel=2)
-            if dispersion is None:
-                return form
-            loss_factor = None
-        else:
-            loss_factor = (found, q_frequency)
-    value, at = loss_factor if loss_factor is not None else (None, None)
-    if dispersion is None and value is None:
-        return form
-    source = "given"
-    if measured_q is not None and value is not None:
-        source = f"from the Q reading {measured_q[0]:g}"
-    spectrum = CoreSpectrum(mu=mu, reference_frequency=reference, dispersion=dispersion,
-                            loss_factor=value, loss_factor_frequency=at, loss_factor_source=source)
-    return at_frequency(form, spectrum, frequency)
-
-
-def finish_cored(command: str, *, form, result: dict, core: CoreChoice, plot_path, frequency, temperature: float,
-                 title: str, unknown_core: bool, tuned: bool, warnings_: list[str], as_json: bool, render) -> None:
-    """The end every cored command shares: the plot if asked, the cautions, and the answer printed."""
-    from coilplan.cautions import tuned_circuit_cautions
-    from coilplan.cli._common import context_inputs, draw_impedance_plot, emit
-    from coilplan.results.cored import cored_cautions
-
-    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"{title}, {result['turns']} turns")
-    cautions = cored_cautions(result, temperature, material_name=core.material_name, unknown_core=unknown_core)
-    cautions += tuned_circuit_cautions(tuned)
-    emit(command=command, as_json=as_json, inputs=context_inputs(), result=result, warnings_=warnings_,
-         cautions=cautions, render=render)
+    return CoreFacts(material=core.material_name, loss_factor=options["loss_factor"],
+                     measured_q=options["measured_q"])

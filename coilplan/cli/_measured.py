@@ -1,30 +1,22 @@
-"""Readings on the coil in hand, for every form command: options, conditions and calibration."""
+"""What every form command shares: the options of a request, the request they make, and the one ending."""
 
 from __future__ import annotations
 
-import dataclasses
 import functools
 
 import click
 
-from coilplan.apparent import GivenCapacitance, has_frequency_model
-from coilplan.calibrate import ScaledForm
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import InvalidInputError
-from coilplan.physics.resonance import resonant_inductance
-from coilplan.quantities import format_quantity
-from coilplan.results._common import Measured
-from coilplan.rewind import DEFAULT_TOLERANCE, Conditions, closed_core_fit, low_frequency_readings, model_fit
-from coilplan.solve import search_turns
+from coilplan.request import DEFAULT_TOLERANCE, Reading, Request
 
 __all__ = [
-    "calibrate_form",
     "coil_options",
-    "conditions_from",
     "measurement_options",
-    "readings_within_reach",
-    "resolve_target",
-    "run_model_coil",
+    "readings_from",
+    "request_from",
+    "run_form",
+    "test_winding_options",
     "tuning_options",
 ]
 
@@ -43,75 +35,6 @@ def measurement_options(function):
     return functools.reduce(lambda wrapped, option: option(wrapped), reversed(options), function)
 
 
-def conditions_from(*, tolerance, meter_freq, at, self_capacitance, turns_uncertainty) -> Conditions:
-    """The measurement conditions."""
-    return Conditions(tolerance=DEFAULT_TOLERANCE if tolerance is None else tolerance,
-                      tolerance_assumed=tolerance is None, meter_frequency=meter_freq, operating_frequency=at,
-                      self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
-
-
-def calibrate_form(build, readings, conditions: Conditions, kind: str):
-    """(calibrated form, Measured or None).
-
-    A self-capacitance the user gave (``--self-capacitance``) replaces the form's estimate in
-    the form returned (:class:`coilplan.apparent.GivenCapacitance`), with or without readings.
-
-    ``build(al)`` makes the form; ``al`` is None for the uncalibrated model. ``kind``
-    "al": a closed core whose AL comes from the readings; "scale": a model (air coil,
-    rod) whose level is scaled to them.
-    """
-    given = conditions.self_capacitance if not conditions.self_capacitance_estimated else None
-
-    def with_given(form):
-        return form if given is None else GivenCapacitance(form, given)
-
-    if not readings:
-        return with_given(build(None)), None
-    readings = list(readings)
-    readings_within_reach(build(1.0 if kind == "al" else None), readings, conditions.turns_uncertainty)
-    frequencies_given = conditions.meter_frequency is not None or conditions.operating_frequency is not None
-    if conditions.self_capacitance is None and frequencies_given:
-        # no measured self-capacitance: the form's own estimate for the coil as it is now
-        estimate = build(1.0 if kind == "al" else None)  # geometry only: C(N) does not depend on AL
-        if has_frequency_model(estimate):
-            turns_now = readings[-1][1]
-            conditions = dataclasses.replace(conditions, self_capacitance=float(estimate.self_capacitance(turns_now)),
-                                             self_capacitance_estimated=True)
-    low = low_frequency_readings(readings, conditions)
-    if kind == "al":
-        fit = closed_core_fit(low)
-        calibrated = build(fit.value)
-    else:
-        form = build(None)
-        fit = model_fit(form, low)
-        calibrated = ScaledForm(form, fit.value)
-    return with_given(calibrated), Measured(readings, fit, conditions)
-
-
-def readings_within_reach(form, readings, turns_uncertainty: float = 0.0) -> None:
-    """Refuse a reading (--measured L@N) at more turns than this form can hold, or a doubt on the counts
-    (--turns-uncertainty) as large as a count itself.
-
-    The limit is the one the solver works to (:func:`coilplan.solve.search_turns`): what fits the
-    former, window or rod, or on a former of unstated length the longest winding the tool plans.
-    A reading beyond it is not of this coil: a miscounted or mistyped turn count, or the wrong former.
-    A count known to ± its own size or more could be no turns at all.
-    """
-    readings = list(readings or ())
-    limit, reason = search_turns(form)
-    for inductance, turns in readings:
-        if turns > limit + 1e-9:
-            raise InvalidInputError(
-                "--measured", f"a reading at a turn count this coil can have, at most {limit:.0f}: "
-                f"{form.limit_reason(limit) if reason is None else reason}",
-                f"{format_quantity(inductance, 'H')}@{turns}")
-    fewest = min((turns for _, turns in readings), default=None)
-    if fewest is not None and turns_uncertainty >= fewest:
-        raise InvalidInputError("--turns-uncertainty", f"an uncertainty below the fewest turns read ({fewest}): "
-                                "a count known only to ± its own size could be no turns at all",
-                                f"{turns_uncertainty:g}")
-
-
 def tuning_options(function):
     """--target-frequency with --capacitance: wind for resonance with a given capacitor."""
     options = [
@@ -121,24 +44,6 @@ def tuning_options(function):
                      help="The capacitor across the coil, with --target-frequency."),
     ]
     return functools.reduce(lambda wrapped, option: option(wrapped), reversed(options), function)
-
-
-def resolve_target(target, target_frequency, tuning_capacitance, at):
-    """(target inductance, operating frequency) from --target or --target-frequency with --capacitance.
-
-    To resonate with C at f the coil must show L = 1/((2πf)²·C) there: its own self-capacitance
-    is in parallel with C, and the apparent inductance L/(1 − ω²LC_self) absorbs it exactly.
-    """
-    if target_frequency is None and tuning_capacitance is None:
-        return target, at
-    if target_frequency is None or tuning_capacitance is None:
-        missing = "--capacitance" if tuning_capacitance is None else "--target-frequency"
-        raise InvalidInputError(missing, "both --target-frequency and --capacitance", None)
-    if target is not None:
-        raise InvalidInputError("--target", "either --target or --target-frequency with --capacitance", None)
-    if at is not None and abs(at / target_frequency - 1.0) > 1e-12:
-        raise InvalidInputError("--at", "the same frequency as --target-frequency, or leave it out", None)
-    return resonant_inductance(target_frequency, tuning_capacitance), target_frequency
 
 
 def _stack(options):
@@ -172,32 +77,66 @@ def coil_options(function):
     ])(function)
 
 
-def run_model_coil(command: str, make_form, result_of, render, title: str, options: dict) -> None:
-    """The whole of an air-cored form command, given how to make its form from the wire.
+def test_winding_options(function):
+    """--test-wire, --test-pitch, --test-length: the winding the readings were taken on, where it is not the coil's."""
+    length = QuantityType("m")
+    return _stack([
+        click.option("--test-wire", help="The wire of the test winding the readings were taken on, where it is "
+                                         "not --wire (e.g. 0.3mm)."),
+        click.option("--test-pitch", type=length, help="The test winding's pitch, where it is not close wound."),
+        click.option("--test-length", type=length,
+                     help="The test winding's length, where its turns were spread over a fixed length."),
+    ])(function)
 
-    ``options`` are the command's parsed options (those of :func:`coil_options`,
-    :func:`measurement_options`, :func:`tuning_options`, ``--plot`` and ``--json``);
-    ``make_form(wire)`` builds the uncalibrated form; ``result_of`` is its results builder.
-    Readings scale the model (its shape is kept); the answer is rendered or printed as JSON.
-    """
-    from coilplan.cautions import tuned_circuit_cautions
-    from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit
-    from coilplan.cli.solenoid import one_of
+
+def readings_from(options: dict) -> tuple[Reading, ...]:
+    """The --measured readings, each on the test winding when --test-wire, --test-pitch or --test-length is given."""
     from coilplan.wire import parse_wire
 
-    target, frequency = resolve_target(options["target"], options["target_frequency"],
-                                       options["tuning_capacitance"], options["frequency"])
-    one_of(("--turns", options["turns"]), ("--target", target))
-    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
-    conditions = conditions_from(tolerance=options["tolerance"], meter_freq=options["meter_freq"], at=frequency,
-                                 self_capacitance=options["self_capacitance"],
-                                 turns_uncertainty=options["turns_uncertainty"])
-    temperature = options["temperature"]
+    test_wire = options.get("test_wire")
+    wire = None
+    if test_wire is not None:
+        wire = parse_wire(test_wire, grade=options.get("grade", "1"), option="--test-wire")
+    pitch, length = options.get("test_pitch"), options.get("test_length")
+    if (wire is not None or pitch is not None or length is not None) and not options.get("measured"):
+        given = "--test-wire" if wire is not None else ("--test-pitch" if pitch is not None else "--test-length")
+        raise InvalidInputError(given, "a --measured L@N reading taken on that test winding", None)
+    return tuple(Reading(value, turns, wire=wire, pitch=pitch, winding_length=length)
+                 for value, turns in options.get("measured") or ())
+
+
+def request_from(options: dict, *, drive=None, core=None) -> Request:
+    """The request the options of a form command make (:mod:`coilplan.request`)."""
+    from coilplan.request import CoreFacts, Drive
+
+    tuning = None
+    if options.get("target_frequency") is not None or options.get("tuning_capacitance") is not None:
+        if options.get("target_frequency") is None or options.get("tuning_capacitance") is None:
+            missing = "--capacitance" if options.get("tuning_capacitance") is None else "--target-frequency"
+            raise InvalidInputError(missing, "both --target-frequency and --capacitance", None)
+        tuning = (options["target_frequency"], options["tuning_capacitance"])
+    if options.get("turns") is None and options.get("target") is None and tuning is None:
+        raise InvalidInputError("--turns", "one of --turns or --target", None)
+    return Request(turns=options.get("turns"), target=options.get("target"), tuning=tuning,
+                   frequency=options.get("frequency"), readings=readings_from(options),
+                   meter_frequency=options.get("meter_freq"), tolerance=options.get("tolerance"),
+                   self_capacitance=options.get("self_capacitance"),
+                   turns_uncertainty=options.get("turns_uncertainty") or 0.0,
+                   temperature=options.get("temperature", 20.0), drive=drive or Drive(), core=core or CoreFacts())
+
+
+def run_form(command: str, build, options: dict, render, title: str, *, drive=None, core=None) -> None:
+    """The whole of a form command: its form built (``build()``), the request, :func:`coilplan.design.design`,
+    the plot if asked, and the answer printed (text or JSON).
+    """
+    from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit
+    from coilplan.design import design
+
     with captured_warnings() as warnings_:
-        form, readings = calibrate_form(lambda _: make_form(wire), options["measured"], conditions, "scale")
-        result = result_of(form, turns=options["turns"], target=target, temperature_C=temperature,
-                           measured=readings, frequency=frequency)
-    draw_impedance_plot(options["plot_path"], form, result, frequency, temperature,
-                        f"{title}, {result['turns']} turns")
-    emit(command=command, as_json=options["as_json"], inputs=context_inputs(), result=result, warnings_=warnings_,
-         cautions=tuned_circuit_cautions(options["target_frequency"] is not None), render=render)
+        answer = design(build(), request_from(options, drive=drive, core=core))
+    result = dict(answer.result)
+    draw_impedance_plot(options.get("plot_path"), answer.form, result, answer.request.operating_frequency,
+                        answer.request.temperature, f"{title}, {result['turns']} turns")
+    texts = warnings_ + list(answer.warnings)
+    emit(command=command, as_json=options["as_json"], inputs=context_inputs(), result=result,
+         warnings_=list(dict.fromkeys(texts)), cautions=list(answer.cautions), render=render)

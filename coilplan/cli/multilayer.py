@@ -5,16 +5,11 @@ from __future__ import annotations
 import click
 
 from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._measured import (
-    coil_options,
-    measurement_options,
-    run_model_coil,
-    tuning_options,
-)
+from coilplan.cli._measured import coil_options, measurement_options, run_form, test_winding_options, tuning_options
 from coilplan.cli._types import QuantityType
 from coilplan.forms import MULTILAYER_METHODS, MultilayerCoil
 from coilplan.report.coils_text import multilayer_lines
-from coilplan.results import multilayer_result
+from coilplan.wire import parse_wire
 
 __all__ = ["multilayer"]
 
@@ -33,6 +28,7 @@ LENGTH = QuantityType("m")
 @click.option("--method", type=click.Choice(list(MULTILAYER_METHODS)), default="filament", show_default=True,
               help="Exact turn-by-turn sum, or Wheeler's 1928 approximation.")
 @measurement_options
+@test_winding_options
 @tuning_options
 @plot_option
 @json_option
@@ -44,9 +40,10 @@ def multilayer(**options):
     radius and axial position; Wheeler's figure is shown beside it.
     """
 
-    def make_form(wire):
+    def build():
+        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
         return MultilayerCoil(former_diameter=options["former"], width=options["width"], wire=wire,
                               style=options["style"], packing=options["packing"], max_depth=options["max_depth"],
                               lead=options["lead"], method=options["method"])
 
-    run_model_coil("multilayer", make_form, multilayer_result, multilayer_lines, "multilayer coil", options)
+    run_form("multilayer", build, options, multilayer_lines, "multilayer coil")

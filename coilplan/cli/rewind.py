@@ -2,17 +2,17 @@
 
 from __future__ import annotations
 
-import warnings
-
 import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import measurement_type
-from coilplan.cli._measured import conditions_from, measurement_options
+from coilplan.cli._measured import measurement_options
 from coilplan.cli._types import QuantityType
-from coilplan.errors import InvalidInputError, MeasurementWarning
+from coilplan.design import design
+from coilplan.errors import InvalidInputError
+from coilplan.forms import ClosedCore
 from coilplan.report.rewind_text import rewind_lines
-from coilplan.rewind import closed_core_answer
+from coilplan.request import Reading, Request
 from coilplan.wire import parse_wire
 
 __all__ = ["rewind"]
@@ -38,18 +38,18 @@ def rewind(measured, target, offset, turn_length, wire_text, frequency, meter_fr
     if self_capacitance is not None and meter_freq is None and frequency is None:
         # the N² law has no self-resonance to report: the value only corrects readings and target
         raise InvalidInputError("--self-capacitance", "--meter-freq and/or --at to go with it", None)
-    conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
-                                 self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
-    wire = parse_wire(wire_text, option="--wire") if wire_text else None
     with captured_warnings() as warnings_:
-        answer = closed_core_answer(list(measured), target, conditions, offset=offset, turn_length=turn_length,
-                                    wire=wire)
-        for text in answer.warnings:
-            warnings.warn(text, MeasurementWarning, stacklevel=1)
-        result = {**answer.fields, "notices": list(answer.notices)}
+        wire = parse_wire(wire_text, option="--wire") if wire_text else None
+        form = ClosedCore(turn_length=turn_length, wire=wire, fit_offset=offset)
+        request = Request(target=target, frequency=frequency, readings=tuple(Reading(v, n) for v, n in measured),
+                          meter_frequency=meter_freq, tolerance=tolerance, self_capacitance=self_capacitance,
+                          turns_uncertainty=turns_uncertainty)
+        answer = design(form, request)
+    result = {**answer.result, "notices": list(answer.result.get("notices", []))}
     inputs = {"measured": [{"inductance_H": v, "turns": n} for v, n in measured], "target_H": target,
               "offset": offset, "turn_length_m": turn_length, "wire": wire_text, "frequency_Hz": frequency,
               "meter_frequency_Hz": meter_freq, "tolerance": tolerance, "self_capacitance_F": self_capacitance,
               "turns_uncertainty": turns_uncertainty}
     emit(command="rewind", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
-         result=result, warnings_=warnings_, cautions=[], render=rewind_lines)
+         result=result, warnings_=warnings_ + list(answer.warnings), cautions=list(answer.cautions),
+         render=rewind_lines)

@@ -4,25 +4,15 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cautions import tuned_circuit_cautions
-from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit, json_option, plot_option
-from coilplan.cli._measured import (
-    calibrate_form,
-    coil_options,
-    conditions_from,
-    measurement_options,
-    readings_within_reach,
-    resolve_target,
-    tuning_options,
-)
+from coilplan.cli._common import json_option, plot_option
+from coilplan.cli._measured import coil_options, measurement_options, run_form, test_winding_options, tuning_options
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SOLENOID_METHODS, Solenoid
 from coilplan.report.solenoid_text import solenoid_lines
-from coilplan.results import solenoid_result
 from coilplan.wire import parse_wire
 
-__all__ = ["readings_within_reach", "solenoid"]
+__all__ = ["one_of", "solenoid"]
 
 LENGTH = QuantityType("m")
 
@@ -52,36 +42,26 @@ def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
               show_default=True,
               help="Relative permittivity of the former, for the self-capacitance (solid polystyrene about 2.5).")
 @measurement_options
+@test_winding_options
 @tuning_options
 @plot_option
 @json_option
-def solenoid(turns, target, former, diameter, wire_text, grade, overall, pitch, length, max_length,
-             lead, temperature, method, measured, frequency, former_permittivity, meter_freq, tolerance,
-             self_capacitance, turns_uncertainty, target_frequency, tuning_capacitance, plot_path, as_json):
+def solenoid(**options):
     """Single-layer air-core coil on a round former.
 
     Forward: --turns N gives the inductance. Inverse: --target gives the whole
     number of turns to wind, with the inductance of the whole numbers either side.
     The coil diameter is to the wire centres: former + overall wire diameter.
     """
-    target, frequency = resolve_target(target, target_frequency, tuning_capacitance, frequency)
-    one_of(("--turns", turns), ("--target", target))
-    one_of(("--former", former), ("--diameter", diameter))
-    wire = parse_wire(wire_text, grade=grade, overall=overall, option="--wire")
-    coil_diameter = diameter if diameter is not None else former + wire.overall_diameter
-    conditions = conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency,
-                                 self_capacitance=self_capacitance, turns_uncertainty=turns_uncertainty)
+    one_of(("--former", options["former"]), ("--diameter", options["diameter"]))
 
-    def build(_):
-        return Solenoid(diameter=coil_diameter, wire=wire, pitch=pitch, length=length,
-                        max_length=max_length, lead=lead, method=method, former_permittivity=former_permittivity)
+    def build():
+        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+        shape = {"wire": wire, "pitch": options["pitch"], "length": options["length"],
+                 "max_length": options["max_length"], "lead": options["lead"], "method": options["method"],
+                 "former_permittivity": options["former_permittivity"]}
+        if options["former"] is not None:
+            return Solenoid.on_former(options["former"], **shape)
+        return Solenoid(diameter=options["diameter"], **shape)
 
-    with captured_warnings() as warnings_:
-        form, readings = calibrate_form(build, measured, conditions, "scale")
-        result = solenoid_result(form, turns=turns, target=target, temperature_C=temperature,
-                                 former_diameter=former, measured=readings, frequency=frequency)
-    draw_impedance_plot(plot_path, form, result, frequency, temperature, f"single-layer coil, {result['turns']} turns")
-    emit(command="solenoid", as_json=as_json,
-         inputs=context_inputs(),
-         result=result, warnings_=warnings_, cautions=tuned_circuit_cautions(target_frequency is not None),
-         render=solenoid_lines)
+    run_form("solenoid", build, options, solenoid_lines, "single-layer coil")

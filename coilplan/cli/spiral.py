@@ -5,17 +5,12 @@ from __future__ import annotations
 import click
 
 from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._measured import (
-    coil_options,
-    measurement_options,
-    run_model_coil,
-    tuning_options,
-)
+from coilplan.cli._measured import coil_options, measurement_options, run_form, test_winding_options, tuning_options
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SPIRAL_METHODS, FlatSpiral
 from coilplan.report.coils_text import spiral_lines
-from coilplan.results import spiral_result
+from coilplan.wire import parse_wire
 
 __all__ = ["spiral"]
 
@@ -32,6 +27,7 @@ LENGTH = QuantityType("m")
 @click.option("--method", type=click.Choice(list(SPIRAL_METHODS)), default="filament", show_default=True,
               help="Exact turn-by-turn sum, or Wheeler's flat-spiral approximation.")
 @measurement_options
+@test_winding_options
 @tuning_options
 @plot_option
 @json_option
@@ -45,9 +41,10 @@ def spiral(**options):
     if options["spacing"] is None and options["outer"] is None:
         raise InvalidInputError("--spacing", "one of --spacing or --outer", None)
 
-    def make_form(wire):
+    def build():
+        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
         return FlatSpiral(inner_diameter=options["inner"], wire=wire,
                           spacing=0.0 if options["spacing"] is None else options["spacing"],
                           outer_diameter=options["outer"], lead=options["lead"], method=options["method"])
 
-    run_model_coil("spiral", make_form, spiral_result, spiral_lines, "flat spiral", options)
+    run_form("spiral", build, options, spiral_lines, "flat spiral")

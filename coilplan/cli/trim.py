@@ -9,14 +9,14 @@ import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import measurement_type
-from coilplan.cli._measured import conditions_from
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.files import WriteInterrupted
 from coilplan.quantities import format_quantity
 from coilplan.report.text import aligned_rows, bullet_lines
 from coilplan.report.turns_rows import henry, rewind_rows
-from coilplan.rewind import DEFAULT_TOLERANCE, low_frequency_readings
+from coilplan.request import DEFAULT_TOLERANCE, Request
+from coilplan.rewind import low_frequency_readings
 from coilplan.session import (
     LogWriteError,
     TrimLog,
@@ -111,8 +111,8 @@ def start(file, target, frequency, meter_freq, tolerance, self_capacitance, offs
     if self_capacitance is not None and meter_freq is None and frequency is None:
         # a closed core's log has no self-resonance to report: the value only corrects readings and target
         raise InvalidInputError("--self-capacitance", "--meter-freq and/or --at to go with it", None)
-    conditions_from(tolerance=tolerance, meter_freq=meter_freq, at=frequency, self_capacitance=self_capacitance,
-                    turns_uncertainty=0.0)
+    Request(target=target, frequency=frequency, meter_frequency=meter_freq, tolerance=tolerance,
+            self_capacitance=self_capacitance)  # the checks every request gets
     if wire_text is not None:
         parse_wire(wire_text, option="--wire")
     log = new_log(target, name=name, offset=offset, turn_length=turn_length, wire=wire_text,

@@ -8,13 +8,14 @@ from dataclasses import dataclass
 import numpy as np
 
 from coilplan.forms._checks import positive
+from coilplan.forms._winding import CoreLaw
 from coilplan.wire import Wire
 
 __all__ = ["ClosedCore"]
 
 
 @dataclass(frozen=True)
-class ClosedCore:
+class ClosedCore(CoreLaw):
     """L = AL·N² + L0: a winding on a closed core, plus a fixed series part for the leads.
 
     Parameters
@@ -29,10 +30,17 @@ class ClosedCore:
         The wire, for resistance.
     """
 
-    al: float
+    al: float | None = None
     offset: float = 0.0
     turn_length: float | None = None
     wire: Wire | None = None
+    fit_offset: bool = False
+
+    def with_al(self, al: float, offset: float = 0.0) -> ClosedCore:
+        """This core with the AL value (and the leads' offset) the readings gave."""
+        import dataclasses
+
+        return dataclasses.replace(self, al=al, offset=offset)
 
     def __post_init__(self) -> None:
         positive(self.al, "--al", "an AL value")

@@ -10,6 +10,7 @@ import numpy as np
 from coilplan.errors import InfeasibleError, InvalidInputError
 from coilplan.forms._checks import positive
 from coilplan.forms._losses import winding_resistance_factor
+from coilplan.forms._winding import CoreLaw, Rewindable
 from coilplan.physics.frequency import multilayer_self_capacitance
 from coilplan.physics.magnetic import fringing_factor, gapped_al, peak_flux_density
 from coilplan.quantities import format_length, format_quantity
@@ -19,7 +20,7 @@ __all__ = ["GappedCore"]
 
 
 @dataclass(frozen=True)
-class GappedCore:
+class GappedCore(CoreLaw, Rewindable):
     """Turns on a gapped core, L = AL·N² with AL = F·µ0·Ae/(lg + le/µr).
 
     Parameters
@@ -80,8 +81,6 @@ class GappedCore:
             raise InvalidInputError("--gap", "a gap length of zero or more", self.gap)
         if not (math.isfinite(self.lead) and self.lead >= 0):
             raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
-        if self.al is None and (self.gap is None or self.mu_r is None):
-            raise InvalidInputError("--gap", "a gap with --mu or --material, or a known --al", None)
         if self.gap is not None and self.gap > 0.5 * self.le:
             raise InvalidInputError("--gap", f"a gap well below the path length {format_length(self.le)}",
                                     format_length(self.gap))
@@ -104,6 +103,40 @@ class GappedCore:
         if not self.fringing or self.window_width is None:
             return base
         return base * fringing_factor(gap, self.ae, self.window_width)
+
+    def settle(self, request):
+        """(core, request, fields): a core whose gap is left open takes it from the request.
+
+        Turns with a target give the gap for AL = L/N²; a target with a current gives the turns and the gap of
+        a choke that carries it below the flux limit (:func:`coilplan.choke.design_choke`). A core with a gap,
+        an AL value or readings is used as it is.
+        """
+        import dataclasses
+
+        if self.gap is not None or self.al is not None or request.readings:
+            if request.turns is not None and request.target is not None:
+                raise InvalidInputError("target", "either turns or a target with a known gap, not both", None)
+            return self, request, {"mode": "given"}
+        if self.mu_r is None:
+            raise InvalidInputError("mu", "the core's permeability, a known AL value, or a reading", None)
+        target, drive = request.target, request.drive
+        if request.turns is not None and target is not None:
+            core = dataclasses.replace(self, gap=self.gap_for_al(target / request.turns**2))
+            return core, dataclasses.replace(request, target=None), {"mode": "gap for turns", "asked_H": target}
+        if target is not None and request.turns is None and (drive.dc_current or drive.ac_current):
+            from coilplan.choke import design_choke
+            from coilplan.saturation import NEAR_SATURATION
+
+            limit = drive.flux_limit
+            if limit is None and self.saturation_flux_density is None:
+                raise InvalidInputError("flux_limit", "a flux-density limit, a saturation flux density or a "
+                                        "material class", None)
+            limit = NEAR_SATURATION * self.saturation_flux_density if limit is None else limit
+            core, turns = design_choke(self, target, drive.dc_current + drive.ac_current, limit)
+            fields = {"mode": "choke design", "asked_H": target, "max_flux_density_T": limit}
+            return core, dataclasses.replace(request, target=None, turns=turns), fields
+        raise InvalidInputError("gap", "a gap, or turns with a target (gives the gap), or a target with a current "
+                                "(gives the turns and the gap)", None)
 
     @property
     def al_value(self) -> float:

@@ -12,6 +12,7 @@ import numpy as np
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.forms._checks import between_whole_turns, outside_stated_range, positive
 from coilplan.forms._losses import winding_resistance_factor
+from coilplan.forms._winding import Rewindable
 from coilplan.physics import multilayer
 from coilplan.physics.frequency import knight_self_capacitance, multilayer_self_capacitance
 from coilplan.quantities import format_length
@@ -40,7 +41,7 @@ EXACT_LAYERS_LIMIT = 200
 
 
 @dataclass(frozen=True)
-class MultilayerCoil:
+class MultilayerCoil(Rewindable):
     """Multilayer air-core coil: layers of round wire across a fixed winding width.
 
     Parameters

@@ -11,6 +11,7 @@ from scipy.constants import mu_0
 from coilplan.errors import InvalidInputError
 from coilplan.forms._checks import positive
 from coilplan.forms._losses import winding_resistance_factor
+from coilplan.forms._winding import Rewindable
 from coilplan.physics.frequency import knight_self_capacitance
 from coilplan.physics.rod import rod_coil_inductance, rod_permeability
 from coilplan.physics.solenoid import current_sheet_inductance
@@ -21,15 +22,16 @@ __all__ = ["RodCoil"]
 
 
 @dataclass(frozen=True)
-class RodCoil:
+class RodCoil(Rewindable):
     """A coil on a ferrite rod; the rod model is rough (tens of percent) until calibrated.
 
     Parameters
     ----------
     rod_length, rod_diameter : float
         The rod, m.
-    mu_initial : float
-        Initial permeability of the rod material (from a material class or given).
+    mu_initial : float or None
+        Initial permeability of the rod material (from a material class or given); None when
+        unknown, for readings to find (:mod:`coilplan.calibrate`).
     wire : Wire
         The wire; its overall diameter sets the close-wound pitch.
     former_diameter : float, optional
@@ -60,7 +62,7 @@ class RodCoil:
 
     rod_length: float
     rod_diameter: float
-    mu_initial: float
+    mu_initial: float | None
     wire: Wire
     former_diameter: float | None = None
     pitch: float | None = None
@@ -70,6 +72,20 @@ class RodCoil:
     saturation_flux_density: float | None = None
     lead: float = 0.0
 
+    _pitch_field = "pitch"
+    _length_field = "coil_length"
+
+    @property
+    def permeability_unknown(self) -> bool:
+        """True while the rod's material is unknown: a reading sets it (:func:`coilplan.calibrate.calibrate`)."""
+        return self.mu_initial is None
+
+    def with_permeability(self, mu: float) -> RodCoil:
+        """The same coil on a rod of initial permeability ``mu``."""
+        import dataclasses
+
+        return dataclasses.replace(self, mu_initial=float(mu))
+
     def __post_init__(self) -> None:
         positive(self.rod_length, "--rod-length", "a rod length")
         positive(self.rod_diameter, "--rod-diameter", "a rod diameter")
@@ -77,7 +93,7 @@ class RodCoil:
         positive(self.coil_length, "--coil-length", "a winding length")
         positive(self.max_length, "--max-length", "a usable winding length")
         positive(self.former_diameter, "--former", "a former diameter")
-        if not (math.isfinite(self.mu_initial) and self.mu_initial >= 1):
+        if self.mu_initial is not None and not (math.isfinite(self.mu_initial) and self.mu_initial >= 1):
             raise InvalidInputError("--mu", "a relative permeability of at least 1", self.mu_initial)
         if not math.isfinite(self.position):
             raise InvalidInputError("--position", "a finite offset", self.position)

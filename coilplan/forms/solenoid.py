@@ -14,6 +14,7 @@ from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.forms._checks import between_whole_turns
 from coilplan.forms._checks import positive as _positive
 from coilplan.forms._losses import winding_resistance_factor
+from coilplan.forms._winding import Rewindable
 from coilplan.physics import loops, solenoid
 from coilplan.physics.frequency import knight_self_capacitance, medhurst_self_capacitance
 from coilplan.quantities import ACCEPTED_RANGES, format_length
@@ -57,7 +58,7 @@ SOLENOID_METHODS: dict[str, tuple[str, str]] = {
 
 
 @dataclass(frozen=True)
-class Solenoid:
+class Solenoid(Rewindable):
     """Single-layer air-core solenoid of round wire, wound at an even pitch.
 
     Parameters
@@ -82,6 +83,9 @@ class Solenoid:
     former_permittivity : float
         Relative permittivity of the former, for the self-capacitance (1: air or
         a thin tube; about 2.5 for solid polystyrene, as Medhurst's formers).
+    former_diameter : float, optional
+        The former's outside diameter, m, when the coil was described by it
+        (:meth:`on_former`): a test winding of another wire then sits on the same former.
     """
 
     diameter: float
@@ -92,6 +96,26 @@ class Solenoid:
     lead: float = 0.0
     method: SolenoidMethod = "nagaoka-rosa"
     former_permittivity: float = 1.0
+    former_diameter: float | None = None
+
+    _pitch_field = "pitch"
+    _length_field = "length"
+
+    @classmethod
+    def on_former(cls, former_diameter: float, wire: Wire, **fields) -> Solenoid:
+        """The coil wound on a former of this outside diameter: D = former + overall wire diameter."""
+        _positive(former_diameter, "former_diameter", "a former diameter")
+        return cls(diameter=former_diameter + wire.overall_diameter, wire=wire, former_diameter=former_diameter,
+                   **fields)
+
+    def with_winding(self, *, wire=None, pitch=None, winding_length=None) -> Solenoid:
+        """This coil wound otherwise; on a former, a thicker or thinner wire moves the turn centres."""
+        rewound = super().with_winding(wire=wire, pitch=pitch, winding_length=winding_length)
+        if self.former_diameter is None or wire is None:
+            return rewound
+        import dataclasses
+
+        return dataclasses.replace(rewound, diameter=self.former_diameter + wire.overall_diameter)
 
     def __post_init__(self) -> None:
         if not (math.isfinite(self.former_permittivity) and self.former_permittivity >= 1):

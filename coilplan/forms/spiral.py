@@ -12,6 +12,7 @@ import numpy as np
 from coilplan.errors import InvalidInputError, OutsideValidityWarning
 from coilplan.forms._checks import between_whole_turns, outside_stated_range, positive
 from coilplan.forms._losses import winding_resistance_factor
+from coilplan.forms._winding import Rewindable
 from coilplan.physics import multilayer
 from coilplan.quantities import format_length
 from coilplan.wire import Wire
@@ -36,7 +37,7 @@ EXACT_TURNS_LIMIT = 3_000
 
 
 @dataclass(frozen=True)
-class FlatSpiral:
+class FlatSpiral(Rewindable):
     """Flat spiral of round wire from an inner diameter outwards.
 
     Parameters

@@ -12,6 +12,7 @@ from scipy.constants import mu_0
 from coilplan.errors import InvalidInputError
 from coilplan.forms._checks import positive
 from coilplan.forms._losses import winding_resistance_factor
+from coilplan.forms._winding import CoreLaw, Rewindable
 from coilplan.physics.frequency import toroid_self_capacitance
 from coilplan.physics.magnetic import al_value, effective_parameters, peak_flux_density, ring_core_constants
 from coilplan.quantities import format_length
@@ -23,7 +24,7 @@ ToroidLayers = Literal["one", "many"]
 
 
 @dataclass(frozen=True)
-class Toroid:
+class Toroid(CoreLaw, Rewindable):
     """Turns wound through a ring core of rectangular section, L = AL·N².
 
     Parameters
@@ -82,9 +83,7 @@ class Toroid:
         if self.outer_diameter <= self.inner_diameter:
             raise InvalidInputError("--od", f"an outer diameter above the inner diameter "
                                     f"{format_length(self.inner_diameter)}", format_length(self.outer_diameter))
-        if self.al is None:
-            if self.mu_r is None:
-                raise InvalidInputError("--mu", "the core's permeability, or its AL value", None)
+        if self.al is None and self.mu_r is not None:
             parameters = self.effective_parameters()
             object.__setattr__(self, "al", float(al_value(self.mu_r, parameters["ae"], parameters["le"])))
         if not (math.isfinite(self.lead) and self.lead >= 0):
@@ -189,6 +188,12 @@ class Toroid:
     def ac_resistance(self, turns, frequency, temperature_C: float = 20.0):
         """Resistance at ``frequency``, ohm: DC resistance × the skin-effect ratio (turns spread round the ring)."""
         return self.resistance(turns, temperature_C) * winding_resistance_factor(self.wire, frequency, temperature_C)
+
+    def with_al(self, al: float, offset: float = 0.0) -> Toroid:
+        """This ring with the AL value the readings gave; its permeability is then the one AL implies."""
+        import dataclasses
+
+        return dataclasses.replace(self, al=al, mu_r=None)
 
     def permeability(self) -> float:
         """The core's relative permeability: ``mu_r``, or the one the AL value implies, AL·le/(µ0·Ae)."""

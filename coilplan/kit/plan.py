@@ -164,7 +164,10 @@ def _reel_length(value):
     if match is None or not match.group(3).strip():
         raise ValueError(f"expected {expected}")
     per_unit = _checked(parse_quantity, "0.001" + match.group(3).strip(), "m") * 1000.0  # metres in one unit
-    length = float(match.group(1)) * 10.0 ** int(match.group(2) or 0) * per_unit
+    exponent = match.group(2) or "0"
+    exponent = int(exponent) if len(exponent) <= 5 else 10**6  # no need to read a thousand-digit power
+    # a power beyond floats' reach is out of range either way (1e400 would overflow, 1e-400 vanish)
+    length = math.inf if abs(exponent) > 300 else float(match.group(1)) * 10.0**exponent * per_unit
     if not (math.isfinite(length) and REEL_RANGE[0] <= length <= REEL_RANGE[1]):
         raise ValueError(f"expected {expected}")
     return length

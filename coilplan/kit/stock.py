@@ -17,7 +17,7 @@ A rod's model is costly (a linear solve per turn count, :func:`coilplan.physics.
 so the kit evaluates it at whole turns only, once each (:class:`WholeTurns`); the solver sees the
 values joined by straight lines, which keeps every whole-turn figure the model's own. Readings of a
 test winding (``measured``) scale the model as ``coilplan rod --measured`` does
-(:func:`coilplan.rewind.model_fit`, the meter's frequency taken out with the winding's estimated
+(:func:`coilplan.calibrate.calibrate`, the meter's frequency taken out with the winding's estimated
 self-capacitance).
 """
 
@@ -34,7 +34,6 @@ from coilplan.errors import InvalidInputError
 from coilplan.forms import GappedCore, MultilayerCoil, RodCoil, Solenoid, Toroid
 from coilplan.kit.plan import STOCK_FORMS
 from coilplan.quantities import format_length, format_quantity
-from coilplan.rewind import Conditions, low_frequency_readings, model_fit
 from coilplan.wire import Wire, parse_wire
 
 __all__ = ["StockItem", "WholeTurns", "build_form", "describe", "plan_wires", "rod_scale", "stock_items",
@@ -121,22 +120,23 @@ def _rod(spec, wire: Wire, settings, scale: float | None = None):
 def rod_scale(spec, settings) -> float | None:
     """The factor that scales the rod model to the readings of the test winding (None without readings).
 
-    The test winding is taken as close wound (at the plan's packing) and centred, of ``measured_wire``.
+    The test winding is taken as close wound (at the plan's packing) and centred, of ``measured_wire``;
+    the calibration is the commands' own (:func:`coilplan.calibrate.calibrate`).
     """
     if spec.measured is None:
         return None
+    from coilplan.calibrate import calibrate
+    from coilplan.request import Reading, Request
+
     wire = parse_wire(spec.measured_wire, grade=spec.measured_grade, option="measured_wire")
-    form = _rod(spec, wire, settings)
-    readings = list(spec.measured)
-    conditions = Conditions(meter_frequency=settings.meter_frequency)
-    if settings.meter_frequency is not None:  # the winding's own capacitance at the meter, as calibrate_form does
-        capacitance = float(form.self_capacitance(readings[-1][1]))
-        conditions = dataclasses.replace(conditions, self_capacitance=capacitance, self_capacitance_estimated=True)
+    request = Request(readings=tuple(Reading(value, turns) for value, turns in spec.measured),
+                      meter_frequency=settings.meter_frequency)
     try:
-        low = low_frequency_readings(readings, conditions)
-    except InvalidInputError as error:  # the plan has no --meter-freq: name its own setting
-        raise InvalidInputError("settings.meter_frequency", error.expected, error.got) from None
-    return model_fit(form, low).value
+        form, _ = calibrate(_rod(spec, wire, settings), request)
+    except InvalidInputError as error:  # name the plan's own setting
+        where = "settings.meter_frequency" if error.option in ("meter_frequency", "--meter-freq") else "measured"
+        raise InvalidInputError(where, error.expected, error.got) from None
+    return form.factor
 
 
 def stock_items(plan) -> list[StockItem]:

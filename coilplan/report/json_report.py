@@ -12,17 +12,17 @@ import math
 from collections.abc import Mapping, Sequence
 from typing import Any
 
-__all__ = ["json_document"]
+__all__ = ["clean", "json_document"]
 
 
-def _clean(value: Any) -> Any:
+def clean(value: Any) -> Any:
     """Plain JSON types: numpy scalars to Python, non-finite floats to None."""
     if isinstance(value, Mapping):
-        return {str(key): _clean(item) for key, item in value.items()}
+        return {str(key): clean(item) for key, item in value.items()}
     if isinstance(value, (list, tuple)):
-        return [_clean(item) for item in value]
+        return [clean(item) for item in value]
     if hasattr(value, "tolist") and not isinstance(value, (str, bytes)):
-        return _clean(value.tolist())
+        return clean(value.tolist())
     if isinstance(value, bool) or value is None or isinstance(value, (int, str)):
         return value
     if isinstance(value, float):
@@ -51,8 +51,8 @@ def json_document(command: str, inputs: Mapping[str, Any], result: Mapping[str, 
     """
     document = {
         "command": command,
-        "inputs": _clean(dict(inputs)),
-        "result": _clean(dict(result)),
+        "inputs": clean(dict(inputs)),
+        "result": clean(dict(result)),
         "warnings": [str(text) for text in warnings],
         "cautions": [str(text) for text in cautions],
     }

@@ -45,6 +45,7 @@ def turns_rows(result: dict) -> list[tuple[str, ...]]:
         rows.append(("whole turns either side",
                      f"{turns_word(result['turns_below'])}: {henry(result['inductance_below_H'])}",
                      f"{turns_word(result['turns_above'])}: {henry(result['inductance_above_H'])}"))
+    rows += [("note", notice) for notice in result.get("notices", [])]
     return rows
 
 

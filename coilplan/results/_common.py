@@ -4,24 +4,15 @@ from __future__ import annotations
 
 import math
 import warnings
-from dataclasses import dataclass
 
 from coilplan.apparent import ApparentForm, has_frequency_model
+from coilplan.calibrate import Measured
 from coilplan.errors import InfeasibleError, MeasurementWarning
 from coilplan.quantities import format_quantity
-from coilplan.rewind import Conditions, Fit, rewind_fields
+from coilplan.rewind import rewind_fields
 from coilplan.solve import solve_turns
 
 __all__ = ["Measured", "check_fits", "given_capacitance", "turns_block", "wire_fields"]
-
-
-@dataclass(frozen=True)
-class Measured:
-    """Readings of the coil as it is (as the meter showed them), their calibration, the conditions."""
-
-    readings: list
-    fit: Fit
-    conditions: Conditions
 
 
 def turns_block(form, *, turns: int | None, target: float | None, measured: Measured | None = None,
@@ -39,7 +30,7 @@ def turns_block(form, *, turns: int | None, target: float | None, measured: Meas
     """
     if (turns is None) == (target is None):
         raise ValueError("give exactly one of turns and target")
-    if measured is not None and target is not None:
+    if measured is not None and target is not None and measured.same_winding:
         fields, texts = rewind_fields(form, target, measured.readings, measured.fit, measured.conditions)
         for text in texts:
             warnings.warn(text, MeasurementWarning, stacklevel=2)

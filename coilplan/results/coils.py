@@ -50,7 +50,7 @@ def _common(form, result: dict, chosen: int, temperature_C: float, frequency, me
 
 def multilayer_result(form: MultilayerCoil, *, turns: int | None = None, target: float | None = None,
                       temperature_C: float = 20.0, measured: Measured | None = None,
-                      frequency: float | None = None) -> dict:
+                      frequency: float | None = None, drive=None) -> dict:
     """Forward (``turns``) or inverse (``target``) answer for a multilayer coil.
 
     Parameters are as for :func:`coilplan.results.solenoid_result`.
@@ -97,7 +97,7 @@ def multilayer_result(form: MultilayerCoil, *, turns: int | None = None, target:
 
 def spiral_result(form: FlatSpiral, *, turns: int | None = None, target: float | None = None,
                   temperature_C: float = 20.0, measured: Measured | None = None,
-                  frequency: float | None = None) -> dict:
+                  frequency: float | None = None, drive=None) -> dict:
     """Forward (``turns``) or inverse (``target``) answer for a flat spiral.
 
     Returns

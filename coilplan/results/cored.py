@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+import warnings
 
 from scipy.constants import mu_0
 
@@ -14,6 +15,7 @@ from coilplan.cautions import (
     mains_voltage_caution,
     salvaged_mains_caution,
 )
+from coilplan.errors import OutsideValidityWarning
 from coilplan.forms import GappedCore, Toroid
 from coilplan.results._common import Measured, turns_block, wire_fields
 from coilplan.results._common import given_capacitance as _given_capacitance
@@ -21,10 +23,16 @@ from coilplan.saturation import saturation_check
 
 __all__ = ["cored_cautions", "drive_fields", "gapped_result", "rod_result", "toroid_result"]
 
+_UNCALIBRATED = ("the rod model is uncalibrated: expect tens of percent from a real rod; wind a few test "
+                 "turns, measure, and give the reading (L@N) for an answer to trim by")
 
-def drive_fields(form, turns: int, *, dc_current: float = 0.0, ac_current: float = 0.0,
-                 ac_voltage: float | None = None, frequency: float | None = None) -> dict:
+
+def drive_fields(form, turns: int, drive=None, frequency: float | None = None) -> dict:
     """Flux density, saturation margin, largest current and current density, as result fields."""
+    from coilplan.request import Drive
+
+    drive = Drive() if drive is None else drive
+    dc_current, ac_current, ac_voltage = drive.dc_current, drive.ac_current, drive.ac_voltage
     check = saturation_check(form, turns, dc_current=dc_current, ac_current=ac_current,
                              ac_voltage=ac_voltage, frequency=frequency)
     area_mm2 = form.wire.area * 1e6
@@ -79,7 +87,8 @@ def _winding_fields(form, turns: int, temperature_C: float) -> dict:
 
 
 def toroid_result(form: Toroid, *, turns: int | None = None, target: float | None = None,
-                  temperature_C: float = 20.0, measured: Measured | None = None, **drive) -> dict:
+                  temperature_C: float = 20.0, measured: Measured | None = None, frequency: float | None = None,
+                  drive=None) -> dict:
     """Forward or inverse answer for a toroid, with IEC 60205 parameters and the saturation check.
 
     Parameters
@@ -91,8 +100,10 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
         Working temperature for the second resistance figure, °C.
     measured : Measured, optional
         Readings of the coil as it is, for turns to add or remove (see :func:`turns_block`).
-    **drive
-        ``dc_current``, ``ac_current``, ``ac_voltage``, ``frequency`` for :func:`drive_fields`.
+    frequency : float, optional
+        The operating frequency, Hz.
+    drive : Drive, optional
+        The currents and voltage, for :func:`drive_fields`.
 
     Returns
     -------
@@ -102,7 +113,7 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
         ``wire_length_m``, ``dc_resistance_ohm``, flux-density fields, and the
         inverse's ``turns_exact`` and neighbours.
     """
-    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=drive.get("frequency"))
+    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=frequency)
     chosen = result["turns"]
     parameters = form.effective_parameters()
     result.update(
@@ -125,14 +136,15 @@ def toroid_result(form: Toroid, *, turns: int | None = None, target: float | Non
         max_turns=int(form.max_turns()),
         wire_per_turn_m=form.wire_per_turn(),
         **_winding_fields(form, chosen, temperature_C),
-        **drive_fields(form, chosen, **drive),
+        **drive_fields(form, chosen, drive, frequency),
     )
-    result.update(frequency_fields(form, chosen, drive.get("frequency"), temperature_C, _given_capacitance(measured)))
+    result.update(frequency_fields(form, chosen, frequency, temperature_C, _given_capacitance(measured)))
     return result
 
 
 def gapped_result(form: GappedCore, *, turns: int | None = None, target: float | None = None,
-                  temperature_C: float = 20.0, measured: Measured | None = None, **drive) -> dict:
+                  temperature_C: float = 20.0, measured: Measured | None = None, frequency: float | None = None,
+                  drive=None) -> dict:
     """Forward or inverse answer for a gapped core, with fringing shown separately.
 
     Returns
@@ -142,7 +154,7 @@ def gapped_result(form: GappedCore, *, turns: int | None = None, target: float |
         ``fringing_factor``, ``gap_m``, ``ae_m2``, ``le_m``, ``effective_mu``,
         ``turns_per_layer``, ``max_turns``, winding and flux-density fields.
     """
-    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=drive.get("frequency"))
+    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=frequency)
     chosen = result["turns"]
     al = form.al_value
     factor = form.fringing_factor() if form.al is None else 1.0
@@ -159,14 +171,15 @@ def gapped_result(form: GappedCore, *, turns: int | None = None, target: float |
         turns_per_layer=form.turns_per_layer(),
         max_turns=None if math.isinf(form.max_turns()) else int(form.max_turns()),
         **_winding_fields(form, chosen, temperature_C),
-        **drive_fields(form, chosen, **drive),
+        **drive_fields(form, chosen, drive, frequency),
     )
-    result.update(frequency_fields(form, chosen, drive.get("frequency"), temperature_C, _given_capacitance(measured)))
+    result.update(frequency_fields(form, chosen, frequency, temperature_C, _given_capacitance(measured)))
     return result
 
 
 def rod_result(form, *, turns: int | None = None, target: float | None = None, temperature_C: float = 20.0,
-               measured: Measured | None = None, **drive) -> dict:
+               measured: Measured | None = None, frequency: float | None = None,
+                  drive=None) -> dict:
     """Forward or inverse answer for a coil on a ferrite rod.
 
     Parameters
@@ -185,7 +198,9 @@ def rod_result(form, *, turns: int | None = None, target: float | None = None, t
         ``length_m`` (winding, end to end), ``pitch_m``, ``diameter_m`` (to wire
         centres), winding and flux-density fields, and the inverse's neighbours.
     """
-    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=drive.get("frequency"))
+    if measured is None:
+        warnings.warn(_UNCALIBRATED, OutsideValidityWarning, stacklevel=2)
+    result = turns_block(form, turns=turns, target=target, measured=measured, frequency=frequency)
     chosen = result["turns"]
     factor = getattr(form, "factor", 1.0)
     result.update(
@@ -203,9 +218,9 @@ def rod_result(form, *, turns: int | None = None, target: float | None = None, t
         position_m=form.position,
         max_turns=math.floor(form.max_turns() + 1e-9),
         **_winding_fields(form, chosen, temperature_C),
-        **drive_fields(form, chosen, **drive),
+        **drive_fields(form, chosen, drive, frequency),
     )
     if measured is not None:
         result["measured_residuals"] = list(measured.fit.residuals)
-    result.update(frequency_fields(form, chosen, drive.get("frequency"), temperature_C, _given_capacitance(measured)))
+    result.update(frequency_fields(form, chosen, frequency, temperature_C, _given_capacitance(measured)))
     return result

@@ -14,8 +14,8 @@ __all__ = ["solenoid_result"]
 
 
 def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float | None = None,
-                    temperature_C: float = 20.0, former_diameter: float | None = None,
-                    measured: Measured | None = None, frequency: float | None = None) -> dict:
+                    temperature_C: float = 20.0, measured: Measured | None = None,
+                    frequency: float | None = None, drive=None) -> dict:
     """Forward (``turns``) or inverse (``target``) answer for a single-layer solenoid.
 
     Parameters
@@ -28,8 +28,6 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
         Target low-frequency inductance, H (inverse).
     temperature_C : float
         Temperature for the second DC resistance figure, °C.
-    former_diameter : float, optional
-        The former's outside diameter, m, when the user gave it (reported only).
     measured : Measured, optional
         Readings of the coil as it is (``form`` then is the calibrated model): the answer
         is the turns to add or remove.
@@ -84,8 +82,8 @@ def solenoid_result(form: Solenoid, *, turns: int | None = None, target: float |
     result.update(frequency_fields(form, chosen, frequency, temperature_C, _given_capacitance(measured)))
     result["medhurst_self_capacitance_F"] = float(form.medhurst_self_capacitance(chosen))
     result["former_permittivity"] = form.former_permittivity
-    if former_diameter is not None:
-        result["former_diameter_m"] = former_diameter
+    if form.former_diameter is not None:
+        result["former_diameter_m"] = form.former_diameter
     if form.max_length is not None:
         result["max_length_m"] = form.max_length
     limit = form.max_turns()
