@@ -11,7 +11,7 @@ from coilplan.cli._types import CountType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_quantity, parse_loss_factor, parse_measurement, parse_q_reading
 
-__all__ = ["CoreChoice", "core_facts", "core_options", "drive_of", "resolve_core"]
+__all__ = ["CoreChoice", "core_options", "resolve_core"]
 
 LENGTH = QuantityType("m")
 
@@ -126,19 +126,3 @@ def resolve_core(*, mu, material, al, measured, bsat, temperature, allow_gap=Fal
     else:
         basis = "gap and permeability"
     return CoreChoice(mu_r, al, limit, chosen.name if chosen is not None else None, basis)
-
-
-def drive_of(options: dict):
-    """The drive (:class:`coilplan.request.Drive`) the options give."""
-    from coilplan.request import Drive
-
-    return Drive(dc_current=options["current"], ac_current=options["ac_current"], ac_voltage=options["ac_voltage"],
-                 flux_limit=options.get("max_flux"))
-
-
-def core_facts(options: dict, core: CoreChoice):
-    """What the options say of the core's material (:class:`coilplan.request.CoreFacts`)."""
-    from coilplan.request import CoreFacts
-
-    return CoreFacts(material=core.material_name, loss_factor=options["loss_factor"],
-                     measured_q=options["measured_q"])

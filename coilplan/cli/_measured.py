@@ -105,8 +105,8 @@ def readings_from(options: dict) -> tuple[Reading, ...]:
                  for value, turns in options.get("measured") or ())
 
 
-def request_from(options: dict, *, drive=None, core=None) -> Request:
-    """The request the options of a form command make (:mod:`coilplan.request`)."""
+def request_from(options: dict) -> Request:
+    """The request a form command's options make (:mod:`coilplan.request`); drive and core where it has them."""
     from coilplan.request import CoreFacts, Drive
 
     tuning = None
@@ -117,26 +117,32 @@ def request_from(options: dict, *, drive=None, core=None) -> Request:
         tuning = (options["target_frequency"], options["tuning_capacitance"])
     if options.get("turns") is None and options.get("target") is None and tuning is None:
         raise InvalidInputError("--turns", "one of --turns or --target", None)
+    drive = Drive()
+    if "current" in options:
+        drive = Drive(dc_current=options["current"], ac_current=options["ac_current"],
+                      ac_voltage=options["ac_voltage"], flux_limit=options.get("max_flux"))
+    core = CoreFacts(material=options.get("material"), loss_factor=options.get("loss_factor"),
+                     measured_q=options.get("measured_q"))
     return Request(turns=options.get("turns"), target=options.get("target"), tuning=tuning,
                    frequency=options.get("frequency"), readings=readings_from(options),
                    meter_frequency=options.get("meter_freq"), tolerance=options.get("tolerance"),
                    self_capacitance=options.get("self_capacitance"),
                    turns_uncertainty=options.get("turns_uncertainty") or 0.0,
-                   temperature=options.get("temperature", 20.0), drive=drive or Drive(), core=core or CoreFacts())
+                   temperature=options.get("temperature", 20.0), drive=drive, core=core)
 
 
-def run_form(command: str, build, options: dict, render, title: str, *, drive=None, core=None) -> None:
-    """The whole of a form command: its form built (``build()``), the request, :func:`coilplan.design.design`,
+def run_form(command: str, form_from, options: dict, render, title: str) -> None:
+    """The whole of a form command: its form (``form_from(options)``), the request, :func:`coilplan.design.design`,
     the plot if asked, and the answer printed (text or JSON).
     """
     from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit
     from coilplan.design import design
 
     with captured_warnings() as warnings_:
-        answer = design(build(), request_from(options, drive=drive, core=core))
+        answer = design(form_from(options), request_from(options))
     result = dict(answer.result)
     draw_impedance_plot(options.get("plot_path"), answer.form, result, answer.request.operating_frequency,
                         answer.request.temperature, f"{title}, {result['turns']} turns")
-    texts = warnings_ + list(answer.warnings)
     emit(command=command, as_json=options["as_json"], inputs=context_inputs(), result=result,
-         warnings_=list(dict.fromkeys(texts)), cautions=list(answer.cautions), render=render)
+         warnings_=list(dict.fromkeys(warnings_ + list(answer.warnings))), cautions=list(answer.cautions),
+         render=render)

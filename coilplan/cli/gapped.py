@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_facts, core_options, drive_of, resolve_core
+from coilplan.cli._cored import LENGTH, core_options, resolve_core
 from coilplan.cli._measured import measurement_options, run_form, test_winding_options, tuning_options
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
@@ -40,6 +40,11 @@ def gapped(**options):
     --target give the gap; --target and --current give the turns and the gap of a choke
     that carries the current without saturating (and fits the window if given).
     """
+    run_form("gapped", form_from, options, gapped_lines, "gapped core")
+
+
+def form_from(options: dict):
+    """The uncalibrated form the options describe (checked: one line naming the option otherwise)."""
     core = resolve_core(mu=options["mu"], material=options["material"], al=options["al"],
                         measured=options["measured"], bsat=options["bsat"], temperature=options["temperature"],
                         allow_gap=True)
@@ -48,12 +53,8 @@ def gapped(**options):
     if core.al_given is None and not options["measured"] and core.mu_r is None:
         raise InvalidInputError("--mu", "the core's permeability (--mu or --material), or --al / --measured", None)
 
-    def build():
-        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
-        return GappedCore(ae=options["ae"], le=options["le"], wire=wire, gap=options["gap"], mu_r=core.mu_r,
-                          al=None if options["measured"] else core.al_given, window_width=options["window_width"],
-                          window_depth=options["window_depth"], fringing=not options["no_fringing"],
-                          saturation_flux_density=core.saturation_flux_density, lead=options["lead"])
-
-    run_form("gapped", build, options, gapped_lines, "gapped core", drive=drive_of(options),
-             core=core_facts(options, core))
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    return GappedCore(ae=options["ae"], le=options["le"], wire=wire, gap=options["gap"], mu_r=core.mu_r,
+                      al=None if options["measured"] else core.al_given, window_width=options["window_width"],
+                      window_depth=options["window_depth"], fringing=not options["no_fringing"],
+                      saturation_flux_density=core.saturation_flux_density, lead=options["lead"])

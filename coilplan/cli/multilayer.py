@@ -39,11 +39,13 @@ def multilayer(**options):
     number of turns. The exact method sums every turn as a circle at its own
     radius and axial position; Wheeler's figure is shown beside it.
     """
+    run_form("multilayer", form_from, options, multilayer_lines, "multilayer coil")
 
-    def build():
-        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
-        return MultilayerCoil(former_diameter=options["former"], width=options["width"], wire=wire,
-                              style=options["style"], packing=options["packing"], max_depth=options["max_depth"],
-                              lead=options["lead"], method=options["method"])
 
-    run_form("multilayer", build, options, multilayer_lines, "multilayer coil")
+def form_from(options: dict):
+    """The uncalibrated form the options describe (checked: one line naming the option otherwise)."""
+
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    return MultilayerCoil(former_diameter=options["former"], width=options["width"], wire=wire,
+                          style=options["style"], packing=options["packing"], max_depth=options["max_depth"],
+                          lead=options["lead"], method=options["method"])

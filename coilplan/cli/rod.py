@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_facts, core_options, drive_of, resolve_core
+from coilplan.cli._cored import LENGTH, core_options, resolve_core
 from coilplan.cli._measured import measurement_options, run_form, test_winding_options, tuning_options
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
@@ -39,17 +39,19 @@ def rod(**options):
     winding and the answer is scaled to it, keeping how L changes as the winding grows.
     Without --mu or --material the reading also gives the rod's permeability.
     """
+    run_form("rod", form_from, options, rod_lines, "coil on a rod")
+
+
+def form_from(options: dict):
+    """The uncalibrated form the options describe (checked: one line naming the option otherwise)."""
     if options["al"] is not None:
         raise InvalidInputError("--al", "no AL value for a rod (the winding's length matters): use --measured", None)
     core = resolve_core(mu=options["mu"], material=options["material"], al=None, measured=None,
                         bsat=options["bsat"], temperature=options["temperature"], allow_gap=True)
 
-    def build():
-        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
-        return RodCoil(rod_length=options["rod_length"], rod_diameter=options["rod_diameter"], mu_initial=core.mu_r,
-                       wire=wire, former_diameter=options["former"], pitch=options["pitch"],
-                       coil_length=options["coil_length"], position=options["position"],
-                       max_length=options["max_length"], saturation_flux_density=core.saturation_flux_density,
-                       lead=options["lead"])
-
-    run_form("rod", build, options, rod_lines, "coil on a rod", drive=drive_of(options), core=core_facts(options, core))
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    return RodCoil(rod_length=options["rod_length"], rod_diameter=options["rod_diameter"], mu_initial=core.mu_r,
+                   wire=wire, former_diameter=options["former"], pitch=options["pitch"],
+                   coil_length=options["coil_length"], position=options["position"],
+                   max_length=options["max_length"], saturation_flux_density=core.saturation_flux_density,
+                   lead=options["lead"])

@@ -53,15 +53,17 @@ def solenoid(**options):
     number of turns to wind, with the inductance of the whole numbers either side.
     The coil diameter is to the wire centres: former + overall wire diameter.
     """
+    run_form("solenoid", form_from, options, solenoid_lines, "single-layer coil")
+
+
+def form_from(options: dict):
+    """The uncalibrated form the options describe (checked: one line naming the option otherwise)."""
     one_of(("--former", options["former"]), ("--diameter", options["diameter"]))
 
-    def build():
-        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
-        shape = {"wire": wire, "pitch": options["pitch"], "length": options["length"],
-                 "max_length": options["max_length"], "lead": options["lead"], "method": options["method"],
-                 "former_permittivity": options["former_permittivity"]}
-        if options["former"] is not None:
-            return Solenoid.on_former(options["former"], **shape)
-        return Solenoid(diameter=options["diameter"], **shape)
-
-    run_form("solenoid", build, options, solenoid_lines, "single-layer coil")
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    shape = {"wire": wire, "pitch": options["pitch"], "length": options["length"],
+             "max_length": options["max_length"], "lead": options["lead"], "method": options["method"],
+             "former_permittivity": options["former_permittivity"]}
+    if options["former"] is not None:
+        return Solenoid.on_former(options["former"], **shape)
+    return Solenoid(diameter=options["diameter"], **shape)

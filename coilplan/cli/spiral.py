@@ -38,13 +38,15 @@ def spiral(**options):
     number of turns. Give --spacing (the gap between turns), or --outer (the
     space available), or both.
     """
+    run_form("spiral", form_from, options, spiral_lines, "flat spiral")
+
+
+def form_from(options: dict):
+    """The uncalibrated form the options describe (checked: one line naming the option otherwise)."""
     if options["spacing"] is None and options["outer"] is None:
         raise InvalidInputError("--spacing", "one of --spacing or --outer", None)
 
-    def build():
-        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
-        return FlatSpiral(inner_diameter=options["inner"], wire=wire,
-                          spacing=0.0 if options["spacing"] is None else options["spacing"],
-                          outer_diameter=options["outer"], lead=options["lead"], method=options["method"])
-
-    run_form("spiral", build, options, spiral_lines, "flat spiral")
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    return FlatSpiral(inner_diameter=options["inner"], wire=wire,
+                      spacing=0.0 if options["spacing"] is None else options["spacing"],
+                      outer_diameter=options["outer"], lead=options["lead"], method=options["method"])

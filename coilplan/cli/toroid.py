@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_facts, core_options, drive_of, resolve_core
+from coilplan.cli._cored import LENGTH, core_options, resolve_core
 from coilplan.cli._measured import measurement_options, run_form, test_winding_options, tuning_options
 from coilplan.cli._types import QuantityType
 from coilplan.forms import Toroid
@@ -36,15 +36,17 @@ def toroid(**options):
     test winding, which also tell which generic material classes the core may be.
     --mu 1 is an air-core toroid.
     """
+    run_form("toroid", form_from, options, toroid_lines, "toroid")
+
+
+def form_from(options: dict):
+    """The uncalibrated form the options describe (checked: one line naming the option otherwise)."""
     core = resolve_core(mu=options["mu"], material=options["material"], al=options["al"],
                         measured=options["measured"], bsat=options["bsat"], temperature=options["temperature"])
 
-    def build():
-        wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
-        known = None if options["measured"] else core.al_given
-        return Toroid(inner_diameter=options["inner"], outer_diameter=options["outer"], height=options["height"],
-                      wire=wire, al=known, al_basis=core.basis, mu_r=core.mu_r if known is None else None,
-                      saturation_flux_density=core.saturation_flux_density, layers=options["layers"],
-                      lead=options["lead"], chamfer=options["chamfer"])
-
-    run_form("toroid", build, options, toroid_lines, "toroid", drive=drive_of(options), core=core_facts(options, core))
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    known = None if options["measured"] else core.al_given
+    return Toroid(inner_diameter=options["inner"], outer_diameter=options["outer"], height=options["height"],
+                  wire=wire, al=known, al_basis=core.basis, mu_r=core.mu_r if known is None else None,
+                  saturation_flux_density=core.saturation_flux_density, layers=options["layers"],
+                  lead=options["lead"], chamfer=options["chamfer"])
