@@ -6,7 +6,7 @@ Every form that can estimate its self-capacitance C(N) looks, at frequency f, li
 
     L_{app} = \frac{L}{1 - \omega^2 L C},\qquad f_{SRF} = \frac{1}{2\pi\sqrt{L C}}
 
-(the small-R limit of the parallel-C model, references.md §10). :class:`ApparentForm`
+(the small-R limit of the parallel-C model, docs/methods.md §10). :class:`ApparentForm`
 wraps a form so that the one solver finds the turns whose *apparent* inductance at f is
 the target; :func:`frequency_fields` gives the figures a report needs at f.
 """

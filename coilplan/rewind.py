@@ -120,7 +120,7 @@ def low_frequency_inductance(apparent, frequency, capacitance):
 
     Examples
     --------
-    >>> round(float(low_frequency_inductance(102.014e-6, 1e6, 5e-12)) * 1e6, 3)  # references.md §10
+    >>> round(float(low_frequency_inductance(102.014e-6, 1e6, 5e-12)) * 1e6, 3)  # docs/methods.md §10
     100.0
     """
     omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
@@ -133,7 +133,7 @@ def apparent_inductance(inductance, frequency, capacitance):
 
     Examples
     --------
-    >>> round(float(apparent_inductance(100e-6, 1e6, 5e-12)) * 1e6, 3)  # references.md §10
+    >>> round(float(apparent_inductance(100e-6, 1e6, 5e-12)) * 1e6, 3)  # docs/methods.md §10
     102.014
     """
     omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)

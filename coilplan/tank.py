@@ -220,7 +220,7 @@ def solve_tank(*, inductance: float | None = None, capacitance: float | None = N
 
     Examples
     --------
-    >>> tank = solve_tank(inductance=240e-6, capacitance=365e-12)  # references.md §10
+    >>> tank = solve_tank(inductance=240e-6, capacitance=365e-12)  # docs/methods.md §10
     >>> round(tank.frequency / 1e3, 2), tank.solved_for
     (537.73, 'frequency')
     """

@@ -1,7 +1,7 @@
 """Independent high-precision reference values, computed with mpmath from the published formulas.
 
 Nothing here imports coilplan: these are the outside references the tests compare with.
-mpmath's ellipk/ellipe take the parameter m = k², as in references.md.
+mpmath's ellipk/ellipe take the parameter m = k², as in docs/methods.md §5c.
 """
 
 import mpmath as mp
@@ -10,7 +10,7 @@ MU0 = mp.mpf(4) * mp.pi * mp.mpf("1e-7")  # the tests compare ratios or use scip
 
 
 def nagaoka(ratio, dps=40):
-    """Nagaoka's K_L(D/l) by the textbook elliptic form (Nagaoka 1909; references.md §1)."""
+    """Nagaoka's K_L(D/l) by the textbook elliptic form (Nagaoka 1909; docs/methods.md §1)."""
     with mp.workdps(dps):
         x = mp.mpf(ratio)
         k2 = x * x / (1 + x * x)
@@ -21,7 +21,7 @@ def nagaoka(ratio, dps=40):
 
 
 def rosa_epsilon(k):
-    """ε_k of Rosa's km sum from its closed (GMD) form (references.md §3)."""
+    """ε_k of Rosa's km sum from its closed (GMD) form (docs/methods.md §3)."""
     k = mp.mpf(k)
     bracket = (k + 1) ** 2 * mp.log(k + 1) - 2 * k * k * mp.log(k)
     if k > 1:

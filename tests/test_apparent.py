@@ -27,7 +27,7 @@ def run_json(*args):
 
 @pytest.mark.parametrize("frequency", [1e6, 7e6, 14e6])
 def test_apparent_target_round_trip(frequency):
-    """At N*, L/(1 − ω²·L·C) equals the target (references.md §10, apparent inductance), L and C the form's."""
+    """At N*, L/(1 − ω²·L·C) equals the target (docs/methods.md §10, apparent inductance), L and C the form's."""
     form = coil()
     solution = solve_turns(ApparentForm(form, frequency), 8e-6)
     n = solution.turns_exact

@@ -66,7 +66,7 @@ def test_wire_length_of_layers():
 
 
 def test_wheeler_method_warns_outside_its_range():
-    """A flat, deep section: validity_warnings says Wheeler is outside its range (references.md §4)."""
+    """A flat, deep section: validity_warnings says Wheeler is outside its range (docs/methods.md §4)."""
     form = MultilayerCoil(former_diameter=0.01, width=0.002, wire=wire("0.2mm"), method="wheeler-1928")
     with pytest.warns(OutsideValidityWarning, match="Wheeler"):
         form.validity_warnings(400)

@@ -70,7 +70,7 @@ def test_air_coil_differs_from_square_root_scaling_as_nagaoka_says():
 @given(st.floats(min_value=1e-7, max_value=1e-2), st.floats(min_value=1e3, max_value=3e7),
        st.floats(min_value=1e-13, max_value=1e-10))
 def test_self_capacitance_correction_both_ways(inductance, frequency, capacitance):
-    """L → L/(1 − ω²LC) → back gives L, below self-resonance (references.md §10, pitfall 13)."""
+    """L → L/(1 − ω²LC) → back gives L, below self-resonance (docs/methods.md §10)."""
     omega2 = (2 * math.pi * frequency) ** 2
     if omega2 * inductance * capacitance >= 0.9:
         return
@@ -81,7 +81,7 @@ def test_self_capacitance_correction_both_ways(inductance, frequency, capacitanc
 
 
 def test_references_apparent_inductance_value():
-    """100 µH with 5 pF at 1 MHz appears as 102.014 µH (references.md §10)."""
+    """100 µH with 5 pF at 1 MHz appears as 102.014 µH (docs/methods.md §10)."""
     assert float(apparent_inductance(100e-6, 1e6, 5e-12)) * 1e6 == pytest.approx(102.014, abs=5e-4)
 
 

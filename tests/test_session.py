@@ -83,7 +83,7 @@ def test_refit_after_each_reading_equals_rewind_on_the_same_readings():
 
 
 def test_refit_with_lead_offset_and_self_capacitance():
-    """Offset and frequency correction: same as closed_core_fit(offset) on L/(1 + ω²LC) readings (references.md §10)."""
+    """Offset and frequency correction: as closed_core_fit(offset) on L/(1 + ω²LC) readings (docs/methods.md §10)."""
     readings = [(60e-6, 20), (104e-6, 27), (90e-6, 25)]
     log = log_with(readings, offset=True, meter_frequency=100e3, operating_frequency=500e3,
                    self_capacitance=20e-12)

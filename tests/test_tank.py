@@ -1,6 +1,6 @@
 """The tank library: two of L, C, f; band coverage with a variable capacitor; L and C0 fitted to resonances.
 
-Expected values come from f = 1/(2π√(LC)) and the band rule Cmax,total/Cmin,total ≥ (fmax/fmin)² (references.md
+Expected values come from f = 1/(2π√(LC)) and the band rule Cmax,total/Cmin,total ≥ (fmax/fmin)² (docs/methods.md
 §10), worked out here with mpmath or exact fractions, and from synthetic readings made with 1/ω² = L·(C + C0).
 """
 
@@ -29,7 +29,7 @@ from coilplan.tank import (
 
 
 def mp_f(inductance, capacitance):
-    """f = 1/(2π√(LC)) at 30 digits (references.md §10)."""
+    """f = 1/(2π√(LC)) at 30 digits (docs/methods.md §10)."""
     with mp.workdps(30):
         return float(1 / (2 * mp.pi * mp.sqrt(mp.mpf(inductance) * mp.mpf(capacitance))))
 
@@ -43,7 +43,7 @@ def readings(inductance, c0, capacitors):
 
 
 def test_two_of_three_hand_worked():
-    """240 µH with 365 pF resonates at the mpmath value (references.md §10: 537.73 kHz); X = √(L/C) there."""
+    """240 µH with 365 pF resonates at the mpmath value (docs/methods.md §10: 537.73 kHz); X = √(L/C) there."""
     tank = solve_tank(inductance=240e-6, capacitance=365e-12)
     assert tank.solved_for == "frequency"
     assert tank.frequency == pytest.approx(mp_f(240e-6, 365e-12), rel=1e-14, abs=0)
@@ -172,7 +172,7 @@ def test_band_padder_in_series():
        f_low=st.floats(100e3, 10e6), band_ratio=st.floats(1.05, 4.0))
 def test_band_rule_decides_coverage(c_min, span, stray, f_low, band_ratio):
     """covers_band holds exactly when (Cmax + Cs)/(Cmin + Cs) ≥ (fmax/fmin)², and then the band covered contains the
-    band, with its low edge at fmin (references.md §10's band rule)."""
+    band, with its low edge at fmin (docs/methods.md §10's band rule)."""
     c_max = c_min * span
     band = (f_low, f_low * band_ratio)
     plan = plan_band(capacitor=(c_min, c_max), band=band, stray=stray)

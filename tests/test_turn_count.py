@@ -2,7 +2,7 @@
 
 The model data come from the laws each method rests on, written out here and not taken from the code
 under test: L = AL·N² on a closed core (the definition of AL in IEC 60205) and R = N·ℓ_turn·ρ(T)/(πd²/4)
-with ρ(T) of annealed copper by IEC 60028 (references.md §7).
+with ρ(T) of annealed copper by IEC 60028 (docs/methods.md §7).
 """
 
 import math
@@ -35,7 +35,7 @@ def closed_core(al: float, turns: float) -> float:
 
 
 def copper_ohm_per_m(diameter: float, temperature_C: float) -> float:
-    """IEC 60028: ρ = (1/58 Ω·mm²/m)·(1 + 0.00393·(T − 20 °C)), over the copper area πd²/4 (references.md §7)."""
+    """IEC 60028: ρ = (1/58 Ω·mm²/m)·(1 + 0.00393·(T − 20 °C)), over the copper area πd²/4 (docs/methods.md §7)."""
     rho = 1e-6 / 58.0 * (1.0 + 0.00393 * (temperature_C - 20.0))
     return rho / (math.pi * diameter**2 / 4.0)
 
@@ -200,7 +200,7 @@ def test_test_winding_recovers_the_count_and_holds_it_in_the_interval(turns, tes
 
 
 def test_resistance_reference_value():
-    """100 turns of 20 AWG at 50 mm a turn: R = 100 × 0.05 m × 0.033309 Ω/m (IEC 60028, references.md §7)."""
+    """100 turns of 20 AWG at 50 mm a turn: R = 100 × 0.05 m × 0.033309 Ω/m (IEC 60028, docs/methods.md §7)."""
     estimate = count_from_resistance(100 * 0.050 * 0.033309, parse_wire("20awg"), 0.050)
     assert estimate.turns_exact == pytest.approx(100, abs=0.01)  # the reference R' is given to 5 digits
     assert estimate.turns == 100

@@ -62,7 +62,7 @@ def csv_rows(name: str) -> list[dict[str, str]]:
 
 @pytest.mark.parametrize("gauge", [10, 20, 24, 30, 36, 40])
 def test_awg_matches_formula_recomputed_with_mpmath(gauge):
-    """awg_diameter reproduces the ASTM B258 formula (references.md §7 (b) gauges) to 1e-13."""
+    """awg_diameter reproduces the ASTM B258 formula (docs/methods.md §7 (b) gauges) to 1e-13."""
     # Source: ASTM B258 formula, as given on https://cvrt.me/en/bb/viewtopic.php?f=1&t=1103
     expected_mm = float(awg_mm_mpmath(gauge))
     assert float(awg_diameter(gauge)) * 1e3 == pytest.approx(expected_mm, rel=1e-13, abs=0)
@@ -82,7 +82,7 @@ def test_awg_matches_rounded_published_table(gauge, published_mm):
 
 def test_awg_36_and_0000_are_exact_by_definition():
     """36 AWG is 0.005 in and 0000 AWG 0.46 in: the two points that define the series."""
-    # Source: ASTM B258 definition of the series (references.md §7).
+    # Source: ASTM B258 definition of the series (docs/methods.md §7).
     assert float(awg_diameter(36)) / INCH == pytest.approx(0.005, rel=1e-14, abs=0)
     assert float(awg_diameter(-3)) / INCH == pytest.approx(0.46, rel=1e-14, abs=0)
     assert float(awg_diameter("0000")) == float(awg_diameter("4/0")) == float(awg_diameter(-3))
@@ -94,7 +94,7 @@ def test_awg_36_and_0000_are_exact_by_definition():
 ])
 def test_parse_awg_gauge_aught_sizes(text, number):
     """Aught sizes count down from 0: 00 = -1, 0000 = 4/0 = -3 in the B258 formula."""
-    # Source: ASTM B258 numbering (references.md §7: "0000" = -3 in the formula).
+    # Source: ASTM B258 numbering (docs/methods.md §7: "0000" = -3 in the formula).
     assert parse_awg_gauge(text) == number
 
 
@@ -120,7 +120,7 @@ def test_awg_monotonic_and_vectorised():
 @given(st.floats(min_value=-3, max_value=17))
 def test_awg_39_gauges_span_ratio_92(gauge):
     """Any 39 gauges apart differ in diameter by exactly 92 (the B258 definition)."""
-    # Source: ASTM B258 formula (references.md §7).
+    # Source: ASTM B258 formula (docs/methods.md §7).
     ratio = float(awg_diameter(gauge)) / float(awg_diameter(gauge + 39))
     assert ratio == pytest.approx(92.0, rel=1e-12, abs=0)
 
@@ -145,7 +145,7 @@ def test_copper_resistivity_at_20C():
 @pytest.mark.parametrize("temperature", [-40.0, 0.0, 60.0, 100.0, 155.0])
 def test_copper_resistivity_follows_iec_60028_line(temperature):
     """rho(T) = rho20 (1 + 0.00393 (T - 20)), recomputed with mpmath from the definition."""
-    # Source: IEC 60028 (alpha20 = 0.00393/K referenced to 20 °C); references.md §7 gives
+    # Source: IEC 60028 (alpha20 = 0.00393/K referenced to 20 °C); docs/methods.md §7 gives
     # (b) rho(100 °C) = 22.662 nohm m from the same definition.
     expected = float(rho_mpmath(temperature))
     assert float(copper_resistivity(temperature)) == pytest.approx(expected, rel=1e-14, abs=0)
@@ -153,7 +153,7 @@ def test_copper_resistivity_follows_iec_60028_line(temperature):
 
 def test_copper_resistivity_100C_rounded_value():
     """rho(100 °C) rounds to 22.662 nohm m."""
-    # Source: IEC 60028 definition; value (b) in references.md §7, here only as a rounding check.
+    # Source: IEC 60028 definition; value (b) in docs/methods.md §7, here only as a rounding check.
     assert float(copper_resistivity(100.0)) * 1e9 == pytest.approx(22.662, abs=0.0005)
 
 
@@ -168,7 +168,7 @@ def test_copper_resistivity_warns_outside_linear_range():
 @pytest.mark.parametrize("gauge", [20, 30])
 def test_resistance_per_metre_awg(gauge):
     """R' = rho20 / (pi d^2/4) for AWG 20 and 30, recomputed with mpmath."""
-    # Source: IEC 60028 (rho20) and ASTM B258 (d); references.md §7 (b) R' values.
+    # Source: IEC 60028 (rho20) and ASTM B258 (d); docs/methods.md §7 (b) R' values.
     d = awg_mm_mpmath(gauge) * mpmath.mpf("1e-3")
     expected = float(rho_mpmath(20) / (mpmath.pi * d**2 / 4))
     wire = parse_wire(f"{gauge}awg")
@@ -186,7 +186,7 @@ def test_resistance_rises_with_temperature_like_resistivity():
 
 # --------------------------------------------------------------------------- enamel
 
-# references.md §7 (a): IS 13730-0-1 (the Indian adoption of IEC 60317-0-1) as transcribed at
+# docs/methods.md §7 (a): IS 13730-0-1 (the Indian adoption of IEC 60317-0-1) as transcribed at
 # http://www.avanticables.com/avanti-conductor/diameter-swg.html (0.315, 0.508, 1.016 mm) and
 # https://www.scribd.com/document/694885707/Quality-Chart-1 (0.100 mm).
 PUBLISHED_BUILD = [

@@ -27,7 +27,7 @@ __all__ = ["LONGEST_WINDING", "SOLENOID_METHODS", "Solenoid", "SolenoidMethod"]
 LONGEST_WINDING = ACCEPTED_RANGES["m"][1]
 
 #: Knight's self-capacitance formula was fitted to, and checked against, Medhurst's table over
-#: l/D = 0.1 to 50 (references.md §6; Knight 2016): outside that it is an extrapolation.
+#: l/D = 0.1 to 50 (docs/methods.md §6; Knight 2016): outside that it is an extrapolation.
 KNIGHT_LENGTH_RATIO = (0.1, 50.0)
 
 #: Largest pitch angle (tan ψ = p/(πD)) for which Knight's 1/cos²ψ factor is taken without a

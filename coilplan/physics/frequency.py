@@ -99,7 +99,7 @@ def _out(value):
 #       2.5, 3.5 and 4.5;
 #   (b) https://pupman.com/listarchives/1996/june/msg00129.html: the rows 1.0 to 5.0
 #       in steps of 0.5, which agree with (a) where both give a value.
-# 0.8 and 1.0 share the minimum 0.46 (references.md §6 gives "0.8-1.0: 0.46").
+# 0.8 and 1.0 share the minimum 0.46 (docs/methods.md §6a lists 0.46 at both).
 _MEDHURST_TABLE = (
     # (l/D, H pF/cm, source)
     (0.1, 0.96, "a"),
@@ -267,7 +267,7 @@ def knight_self_capacitance(diameter, length, pitch=None, former_permittivity=1.
     Notes
     -----
     Knight's semi-empirical formula [Knight2016]_ (coefficients as recalled in
-    references.md §6, not read from the paper). With εi = 2.5 (Medhurst's
+    docs/methods.md §6, not read from the paper). With εi = 2.5 (Medhurst's
     polystyrene rods) it reproduces Medhurst's table to within ±4.6 % (rms about
     2 %) over l/D = 0.1 to 50, which supports the coefficients (checked in
     tests/physics/test_frequency.py). With an air core (εi = 1) C is about 32 %
@@ -507,7 +507,7 @@ def round_wire_impedance_ratio(radius_over_skin_depth):
 
     Examples
     --------
-    >>> z = round_wire_impedance_ratio(10.0)  # references.md §11: 5.2593019
+    >>> z = round_wire_impedance_ratio(10.0)  # docs/methods.md §11: 5.2593019
     >>> round(float(z.real), 7), round(float(z.imag), 7)
     (5.2593019, 4.9896275)
     """
@@ -642,8 +642,8 @@ def dowell_factor(delta, layers):
     -----
     Dowell's one-dimensional model [Dowell1966]_: each layer is replaced by a
     conducting foil of the same copper area, the field is parallel to the layers
-    and rises by the same step across each layer (formula as in references.md
-    §11). For round wire the foil comes from the square of equal area
+    and rises by the same step across each layer (formula as in docs/methods.md
+    §11b). For round wire the foil comes from the square of equal area
     (:func:`dowell_delta`); the model is known to be inaccurate for sparse
     layers of round wire (porosity well below 1), and it ignores the winding's
     curvature, its ends and any air gap's fringing field. Evaluated without
@@ -652,7 +652,7 @@ def dowell_factor(delta, layers):
 
     Examples
     --------
-    >>> round(float(dowell_factor(1.0, 3)), 6)  # references.md §11
+    >>> round(float(dowell_factor(1.0, 3)), 6)  # docs/methods.md §11
     1.939965
     """
     delta = np.asarray(delta, dtype=float)
@@ -699,7 +699,7 @@ def dowell_delta(wire_diameter, skin_depth, turns_per_layer, winding_width):
     -----
     Round wire of diameter d is replaced by a square conductor of equal area,
     side (√π/2)d; the porosity η is the fraction of the layer's width filled by
-    those squares [Dowell1966]_ (pitfall 15 of references.md).
+    those squares [Dowell1966]_ (docs/methods.md §11b).
 
     Examples
     --------
@@ -933,7 +933,7 @@ def self_resonant_frequency(inductance, capacitance):
 
     Examples
     --------
-    >>> print(f"{float(self_resonant_frequency(100e-6, 100e-12)) / 1e3:.2f} kHz")  # references.md §10
+    >>> print(f"{float(self_resonant_frequency(100e-6, 100e-12)) / 1e3:.2f} kHz")  # docs/methods.md §10
     1591.55 kHz
     """
     with np.errstate(divide="ignore"):
@@ -1017,13 +1017,13 @@ def apparent_inductance_and_resistance(frequency, inductance, resistance, capaci
     The exact real and imaginary parts of :func:`coil_impedance` (no parallel
     resistance), written so that f = 0 needs no division by ω (L_app(0) =
     L − R²C). When ωRC ≪ 1 − ω²LC and R²C ≪ L they reduce to the familiar
-    L/(1 − ω²LC) and R/(1 − ω²LC)² (references.md §10). Above the SRF L_app
+    L/(1 − ω²LC) and R/(1 − ω²LC)² (docs/methods.md §10). Above the SRF L_app
     is negative: the coil looks capacitive.
 
     Examples
     --------
     >>> l_app, r_app = apparent_inductance_and_resistance(1e6, 100e-6, 0.0, 5e-12)
-    >>> print(f"{float(l_app) * 1e6:.3f} µH")  # references.md §10: 102.014 µH
+    >>> print(f"{float(l_app) * 1e6:.3f} µH")  # docs/methods.md §10: 102.014 µH
     102.014 µH
     """
     omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)

@@ -76,7 +76,7 @@ def ring_core_constants(inner_diameter, outer_diameter, height, chamfer=0.0):
 
     Examples
     --------
-    >>> c1, c2 = ring_core_constants(15e-3, 25e-3, 10e-3)  # references.md §8
+    >>> c1, c2 = ring_core_constants(15e-3, 25e-3, 10e-3)  # docs/methods.md §8
     >>> round(float(c1) * 1e-3, 6), round(float(c2) * 1e-9, 8)  # per mm, per mm³
     (1.230006, 0.02513973)
     """
@@ -158,7 +158,7 @@ def al_value(mu_r, ae, le):
     Examples
     --------
     >>> le, ae, _ = effective_parameters(*ring_core_constants(15e-3, 25e-3, 10e-3))
-    >>> round(float(al_value(2000, ae, le)) * 1e9, 2)  # nH, references.md §8
+    >>> round(float(al_value(2000, ae, le)) * 1e9, 2)  # nH, docs/methods.md §8
     2043.3
     """
     return mu_0 * np.asarray(mu_r, dtype=float) * np.asarray(ae, dtype=float) / np.asarray(le, dtype=float)
@@ -196,7 +196,7 @@ def gapped_al(ae, le, gap, mu_r):
 
     Examples
     --------
-    >>> round(float(gapped_al(100e-6, 50e-3, 0.5e-3, 2000)) * 1e9, 3)  # references.md §8
+    >>> round(float(gapped_al(100e-6, 50e-3, 0.5e-3, 2000)) * 1e9, 3)  # docs/methods.md §8
     239.359
     """
     ae = np.asarray(ae, dtype=float)
@@ -234,7 +234,7 @@ def fringing_factor(gap, ae, window_height):
 
     Examples
     --------
-    >>> round(float(fringing_factor(0.5e-3, 100e-6, 10e-3)), 4)  # references.md §8
+    >>> round(float(fringing_factor(0.5e-3, 100e-6, 10e-3)), 4)  # docs/methods.md §8
     1.1844
     """
     gap = np.asarray(gap, dtype=float)

@@ -72,7 +72,7 @@ def resonant_frequency(inductance, capacitance):
 
     Examples
     --------
-    >>> round(float(resonant_frequency(100e-6, 100e-12)) / 1e3, 2)  # kHz, references.md §10
+    >>> round(float(resonant_frequency(100e-6, 100e-12)) / 1e3, 2)  # kHz, docs/methods.md §10
     1591.55
     """
     L = np.asarray(inductance, dtype=float)
@@ -101,7 +101,7 @@ def resonant_inductance(frequency, capacitance):
 
     Examples
     --------
-    >>> round(float(resonant_inductance(530e3, 365e-12)) * 1e6, 2)  # µH, references.md §10
+    >>> round(float(resonant_inductance(530e3, 365e-12)) * 1e6, 2)  # µH, docs/methods.md §10
     247.06
     """
     f = np.asarray(frequency, dtype=float)
@@ -192,7 +192,7 @@ def band_capacitance_ratio(f_low, f_high):
 
     Examples
     --------
-    >>> round(float(band_capacitance_ratio(530e3, 1700e3)), 3)  # references.md §10
+    >>> round(float(band_capacitance_ratio(530e3, 1700e3)), 3)  # docs/methods.md §10
     10.288
     """
     return (np.asarray(f_high, dtype=float) / np.asarray(f_low, dtype=float)) ** 2

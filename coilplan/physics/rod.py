@@ -20,7 +20,7 @@ is cut into n equal slices; slice j carries a uniform axial magnetisation M_j,
 the same over its whole cross-section. The demagnetising field of that
 magnetisation, averaged over each slice's volume, is exact for such a profile:
 a uniformly magnetised segment of length t has the volume-averaged factor
-:math:`1 - K_L(d/t)` (Nagaoka's coefficient, [Chen1991]_, references.md §9), and
+:math:`1 - K_L(d/t)` (Nagaoka's coefficient, [Chen1991]_, docs/methods.md §9), and
 the interaction of two segments follows from that self term by the usual
 four-term difference of end separations (the rule that gives the mutual
 inductance of coaxial current sheets from Lorenz's formula). In units of d,
@@ -130,8 +130,8 @@ def spheroid_demagnetising_factor(length_over_diameter):
     The closed form of [Osborn1945]_ (due to Maxwell and Stoner). For large m,
     :math:`N \approx (\ln 2m - 1)/m^2`. For reference and comparison only: a
     ferrite *rod* is a cylinder, whose factor is lower at high permeability and
-    depends on χ (:func:`cylinder_demagnetising_factor`; references.md §9,
-    pitfall 10). Relative error about 1e-15 (against mpmath).
+    depends on χ (:func:`cylinder_demagnetising_factor`; docs/methods.md §9a,
+    §9c). Relative error about 1e-15 (against mpmath).
 
     References
     ----------
@@ -139,7 +139,7 @@ def spheroid_demagnetising_factor(length_over_diameter):
 
     Examples
     --------
-    >>> round(float(spheroid_demagnetising_factor(10.0)), 8)  # references.md §9: 0.02028588
+    >>> round(float(spheroid_demagnetising_factor(10.0)), 8)  # docs/methods.md §9: 0.02028588
     0.02028588
     >>> float(spheroid_demagnetising_factor(1.0))
     0.3333333333333333
@@ -318,7 +318,7 @@ def cylinder_demagnetising_factor(length_over_diameter, susceptibility,
     1 − l/√(l² + d²) is *not* N_f: it is the field at the centre point only,
     above the cross-section average (0.293 against 0.232 at γ = 1), the two
     agreeing to O(1/γ²) relative for long rods. For χ > 0 it agrees with the
-    tabulated 1-D computations of references.md §9 to about 1e-4 relative,
+    tabulated 1-D computations of docs/methods.md §9 to about 1e-4 relative,
     and with the χ → ∞, γ = 10 value N_f ≈ 0.0172 recalled from
     [BozorthChapin1942]_ (from memory).
 
@@ -379,8 +379,8 @@ def rod_permeability(mu_initial, length_over_diameter,
 
     Notes
     -----
-    The relation is the definition of the demagnetising factor (references.md
-    §9); N is the cylinder's, which depends on μi (pitfall 10). Using the
+    The relation is the definition of the demagnetising factor (docs/methods.md
+    §9a); N is the cylinder's, which depends on μi (§9c). Using the
     ellipsoid's N instead makes μ_rod about 15 % low at γ = 10, μi = 2000. This
     is the permeability of the rod in a *uniform* applied field; the inductance
     of a coil wound on the rod is not μ_rod times its air value
@@ -390,7 +390,7 @@ def rod_permeability(mu_initial, length_over_diameter,
 
     Examples
     --------
-    >>> round(float(rod_permeability(2000.0, 10.0)), 1)  # references.md §9: 56.8
+    >>> round(float(rod_permeability(2000.0, 10.0)), 1)  # docs/methods.md §9: 56.8
     56.8
     >>> float(rod_permeability(1.0, 10.0))
     1.0
@@ -515,7 +515,7 @@ def rod_coil_inductance(turns, rod_length, rod_diameter, mu_initial, coil_length
     uniform field (to 1e-6 for a coil 100 rods long); a long tight coil on a
     longer rod approaches L_s + (μi − 1) μ0 n² A c, its relative deficit
     falling as 1/c (5 % at c = 20 d, μi = 4). The inductance of a *short*
-    coil is not μ_rod times its air value (references.md, pitfall 10).
+    coil is not μ_rod times its air value (docs/methods.md §9a, §14).
 
     *How rough.* The model is ours and not validated against measurements.
     It is a current sheet (no wire-size or pitch corrections, which are small

@@ -373,7 +373,7 @@ def current_sheet_inductance(diameter, length, turns, coefficient=None):
 
     Examples
     --------
-    >>> round(float(current_sheet_inductance(0.05, 0.05, 25)) * 1e6, 6)  # references.md §3
+    >>> round(float(current_sheet_inductance(0.05, 0.05, 25)) * 1e6, 6)  # docs/methods.md §3
     21.232684
     """
     diameter = np.asarray(diameter, dtype=float)
@@ -592,7 +592,7 @@ def solenoid_inductance(diameter, pitch, wire_diameter, turns):
 
     Examples
     --------
-    >>> round(float(solenoid_inductance(0.05, 0.002, 0.001, 25)) * 1e6, 4)  # references.md §3
+    >>> round(float(solenoid_inductance(0.05, 0.002, 0.001, 25)) * 1e6, 4)  # docs/methods.md §3
     21.1016
     """
     diameter = np.asarray(diameter, dtype=float)

@@ -24,13 +24,13 @@ def run_json(*args):
 
 
 def test_air_toroid_is_amperes_law():
-    """--mu 1: L = µ0·N²·h·ln(OD/ID)/(2π) exactly (Ampère's law for a rectangular ring; references.md §8)."""
+    """--mu 1: L = µ0·N²·h·ln(OD/ID)/(2π) exactly (Ampère's law for a rectangular ring; docs/methods.md §8)."""
     result = run_json(*RING, "--mu", "1", "--turns", "50")
     assert result["inductance_H"] == pytest.approx(mu_0 * 50**2 * 0.010 * math.log(25 / 15) / (2 * math.pi))
 
 
 def test_toroid_iec_60205_parameters():
-    """le, Ae, Ve of the ID 15 / OD 25 / h 10 mm ring (references.md §8, IEC 60205 definitions)."""
+    """le, Ae, Ve of the ID 15 / OD 25 / h 10 mm ring (docs/methods.md §8, IEC 60205 definitions)."""
     result = run_json(*RING, "--mu", "2000", "--turns", "10")
     assert result["le_m"] * 1e3 == pytest.approx(60.1802, abs=5e-5)
     assert result["ae_m2"] * 1e6 == pytest.approx(48.9268, abs=5e-5)
@@ -72,7 +72,7 @@ def test_toroid_turns_in_one_layer():
 
 
 def test_gapped_al_and_fringing_shown_apart():
-    """AL = F·µ0·Ae/(lg + le/µr): no-fringing 239.36 nH and F = 1.1844 (references.md §8, McLyman)."""
+    """AL = F·µ0·Ae/(lg + le/µr): no-fringing 239.36 nH and F = 1.1844 (docs/methods.md §8, McLyman)."""
     result = run_json(*CORE, "--gap", "0.5mm", "--mu", "2000", "--window-width", "10mm", "--turns", "40")
     assert result["al_no_fringing_H"] * 1e9 == pytest.approx(239.359, abs=5e-4)
     assert result["fringing_factor"] == pytest.approx(1.1844, abs=5e-5)

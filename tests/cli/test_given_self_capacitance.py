@@ -1,6 +1,6 @@
 """A self-capacitance the user measured replaces the estimate everywhere; answers near self-resonance are honest.
 
-The reference relations are the parallel-C model of a coil (references.md §10): the apparent inductance
+The reference relations are the parallel-C model of a coil (docs/methods.md §10): the apparent inductance
 L/(1 − ω²LC) and the self-resonance f = 1/(2π√(LC)).
 """
 

@@ -38,7 +38,7 @@ def test_inverse_json_shape_and_round_trip():
 
 
 def test_forward_against_rosa_worked_example():
-    """--diameter 50mm, 25 turns at 2 mm pitch of 1 mm bare wire: Rosa's method (references.md §3)."""
+    """--diameter 50mm, 25 turns at 2 mm pitch of 1 mm bare wire: Rosa's method (docs/methods.md §3)."""
     result = run_json("solenoid", "--diameter", "50mm", "--pitch", "2mm", "--wire", "1mm",
                       "--grade", "bare", "--turns", "25")["result"]
     exact = float(ref.rosa_solenoid(0.05, 0.002, 0.001, 25, mu_0))  # mpmath, independent
@@ -217,7 +217,7 @@ PITCH_ANGLE = "pitch angle is"
 
 def test_two_turns_over_a_metre_warn_that_knight_is_out_of_range():
     """2 turns over 1 m on a 1 mm coil: l/D = 1000, far outside the 0.1 to 50 of Medhurst's table that Knight's
-    formula was checked over (references.md §6), and a pitch angle of atan(500 mm/(π·1 mm)) = 89.6°, where
+    formula was checked over (docs/methods.md §6), and a pitch angle of atan(500 mm/(π·1 mm)) = 89.6°, where
     1/cos²ψ = 1 + tan²ψ ≈ 25,000 (hand-worked) is what made 286 nF of a straight wire."""
     document = run_json("solenoid", "--wire", "0.5mm", "--diameter", "1mm", "--length", "1000mm", "--turns", "2")
     texts = document["warnings"]

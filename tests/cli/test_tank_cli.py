@@ -1,7 +1,7 @@
 """`coilplan tank` through CliRunner: JSON keys, text lines, exit codes and one-line errors.
 
 Expected numbers are worked out here from f = 1/(2π√(LC)), the band rule (fmax/fmin)² ≤ Cmax,total/Cmin,total
-(references.md §10) and V = √(P·Q·X) for a tank of parallel resistance Q·X.
+(docs/methods.md §10) and V = √(P·Q·X) for a tank of parallel resistance Q·X.
 """
 
 import json

@@ -39,7 +39,7 @@ def copper_ohm_per_m(diameter: float, temperature_C: float = 20.0) -> float:
 
 def test_one_wire_json_fields():
     """`wire 24awg --json` gives the formula's diameter, IEC 60028 resistance and J*A current."""
-    # Sources: ASTM B258 formula (diameter), IEC 60028 (resistivity); references.md §7.
+    # Sources: ASTM B258 formula (diameter), IEC 60028 (resistivity); docs/methods.md §7.
     result = run("24awg", "--json")
     assert result.exit_code == 0, result.output
     document = json.loads(result.stdout)
@@ -88,7 +88,7 @@ def test_one_wire_measured_overall():
 
 def test_one_wire_text():
     """The text view starts with the wire, its bare diameter in mm and inch, and its origin."""
-    # 24 AWG = 0.510559 mm = 0.020101 in by the ASTM B258 formula (references.md §7 (b)).
+    # 24 AWG = 0.510559 mm = 0.020101 in by the ASTM B258 formula (docs/methods.md §7 (b)).
     result = run("24awg", "--temperature", "60C")
     assert result.exit_code == 0, result.output
     lines = result.stdout.splitlines()

@@ -1,7 +1,7 @@
 """At the operating frequency: self-capacitance, skin and proximity effect, litz wire, Q and the parallel-C model.
 
-Reference values come from published tables (Medhurst's, as posted; references.md §6) or are recomputed here
-with mpmath from the published formulas (references.md §7, §10, §11); nothing is pasted from the code's output.
+Reference values come from published tables (Medhurst's, as posted; docs/methods.md §6) or are recomputed here
+with mpmath from the published formulas (docs/methods.md §7, §10, §11); nothing is pasted from the code's output.
 """
 
 import functools
@@ -27,7 +27,7 @@ approx = functools.partial(pytest.approx, abs=0.0)
 RHO_CU = copper_resistivity(20.0)  # IEC 60028 annealed copper, 1/58 Ω·mm²/m
 
 # Medhurst (1947), H in pF per cm of diameter against l/D, as posted:
-# pupman.com/listarchives/1997/november/msg00393.html and 1997/january/msg00722.html (references.md §6),
+# pupman.com/listarchives/1997/november/msg00393.html and 1997/january/msg00722.html (docs/methods.md §6),
 # and the 1.0 to 5.0 rows of pupman.com/listarchives/1996/june/msg00129.html.
 MEDHURST_TABLE = [
     (0.1, 0.96), (0.2, 0.70), (0.5, 0.50), (0.8, 0.46), (1.0, 0.46), (1.5, 0.47), (2.0, 0.50), (2.5, 0.56),
@@ -47,7 +47,7 @@ def _quiet(function, *args, **kwargs):
 
 @pytest.mark.parametrize(("ratio", "h"), [pytest.param(r, h, id=f"l/D={r:g}") for r, h in MEDHURST_TABLE])
 def test_medhurst_h_reproduces_the_table_points(ratio, h):
-    """At every table point the interpolated H is Medhurst's value (Medhurst 1947, as posted; references.md §6)."""
+    """At every table point the interpolated H is Medhurst's value (Medhurst 1947, as posted; docs/methods.md §6)."""
     assert float(fq.medhurst_h(ratio)) == approx(h, rel=1e-13, abs=0)
 
 
@@ -80,7 +80,7 @@ def test_medhurst_self_capacitance_is_h_times_diameter_in_cm():
 
 
 def _knight_h(ratio, eps_i):
-    """Knight's C per cm of diameter, in pF, for D = 1 m (references.md §6), evaluated by mpmath."""
+    """Knight's C per cm of diameter, in pF, for D = 1 m (docs/methods.md §6), evaluated by mpmath."""
     x = 1 / mp.mpf(ratio)
     kc = mp.mpf("0.717439") * x + mp.mpf("0.933048") * x ** mp.mpf(1.5) + mp.mpf("0.106") * x**2
     c = 4 * mp.mpf(epsilon_0) * mp.mpf(ratio) / mp.pi * (1 + kc * (1 + mp.mpf(eps_i)) / 2)
@@ -88,7 +88,7 @@ def _knight_h(ratio, eps_i):
 
 
 def test_knight_reproduces_medhurst_within_published_agreement():
-    """With εi = 2.5 Knight's formula is within ±4.6 % of Medhurst's table, rms about 2 % (references.md §6)."""
+    """With εi = 2.5 Knight's formula is within ±4.6 % of Medhurst's table, rms about 2 % (docs/methods.md §6)."""
     ratios = np.array([r for r, _ in MEDHURST_TABLE])
     table = np.array([h for _, h in MEDHURST_TABLE])
     knight = fq.knight_self_capacitance(1.0, ratios, former_permittivity=2.5) * 1e12 / 100  # pF per cm of D
@@ -100,7 +100,7 @@ def test_knight_reproduces_medhurst_within_published_agreement():
 
 
 def test_knight_air_core_is_a_third_lower_at_unit_ratio():
-    """At l/D = 1 Knight gives 0.459 pF/cm with εi = 2.5 and 0.311 pF/cm (32 % lower) with air (references.md §6)."""
+    """At l/D = 1 Knight gives 0.459 pF/cm with εi = 2.5 and 0.311 pF/cm (32 % lower) with air (docs/methods.md §6)."""
     solid = float(fq.knight_self_capacitance(0.01, 0.01, former_permittivity=2.5)) * 1e12  # D = 1 cm
     air = float(fq.knight_self_capacitance(0.01, 0.01)) * 1e12
     assert solid == approx(0.459, abs=5e-4)
@@ -109,7 +109,7 @@ def test_knight_air_core_is_a_third_lower_at_unit_ratio():
 
 
 def test_knight_pitch_angle_factor():
-    """The pitch enters as 1/cos²ψ with tan ψ = p/(πD) (Knight 2016, references.md §6)."""
+    """The pitch enters as 1/cos²ψ with tan ψ = p/(πD) (Knight 2016, docs/methods.md §6)."""
     flat = float(fq.knight_self_capacitance(0.02, 0.04))
     pitched = float(fq.knight_self_capacitance(0.02, 0.04, pitch=5e-3))
     psi = math.atan(5e-3 / (math.pi * 0.02))
@@ -147,21 +147,21 @@ def test_toroid_estimate_two_cylinder_capacitance_in_series():
 
 @pytest.mark.parametrize("frequency", [50.0, 1e3, 100e3, 455e3, 1e6, 10e6])
 def test_skin_depth_of_iec_copper(frequency):
-    """δ = sqrt(ρ/(π f µ0)) with IEC 60028 copper at 20 °C, recomputed by mpmath (references.md §7 table)."""
+    """δ = sqrt(ρ/(π f µ0)) with IEC 60028 copper at 20 °C, recomputed by mpmath (docs/methods.md §7 table)."""
     with mp.workdps(30):
         expected = mp.sqrt(mp.mpf(1) / 58 * mp.mpf("1e-6") / (mp.pi * frequency * mp.mpf(mu_0)))
     assert float(fq.skin_depth(frequency, RHO_CU)) == approx(float(expected), rel=1e-14, abs=0)
 
 
 def test_skin_depth_values_of_references_table():
-    """The §7 table rounds to the same digits: 66.085 µm at 1 MHz, 20.898 µm at 10 MHz (references.md §7, (b))."""
+    """The §7 table rounds to the same digits: 66.085 µm at 1 MHz, 20.898 µm at 10 MHz (docs/methods.md §7, (b))."""
     assert round(float(fq.skin_depth(1e6, RHO_CU)) * 1e6, 3) == 66.085
     assert round(float(fq.skin_depth(10e6, RHO_CU)) * 1e6, 3) == 20.898
     assert np.isposinf(fq.skin_depth(0.0, RHO_CU))
 
 
 def _mp_impedance_ratio(x, dps=30):
-    """(k a/2)·J0(k a)/J1(k a), k = (1 − j)/δ, by mpmath with complex argument (references.md §11)."""
+    """(k a/2)·J0(k a)/J1(k a), k = (1 − j)/δ, by mpmath with complex argument (docs/methods.md §11)."""
     with mp.workdps(dps):
         z = mp.mpc(1, -1) * mp.mpf(x)
         return z / 2 * mp.besselj(0, z) / mp.besselj(1, z)
@@ -195,7 +195,7 @@ def test_bessel_ratio_keeps_the_small_imaginary_part(x):
 
 
 def test_bessel_ratio_limits():
-    """Low frequency: 1 + (a/δ)⁴/48 and j(a/δ)²/4; high frequency: a/(2δ) + 1/4 + 3δ/(32a) (references.md §11)."""
+    """Low frequency: 1 + (a/δ)⁴/48 and j(a/δ)²/4; high frequency: a/(2δ) + 1/4 + 3δ/(32a) (docs/methods.md §11)."""
     x = 0.05
     z = complex(fq.round_wire_impedance_ratio(x))
     assert z.real - 1 == approx(x**4 / 48, rel=1e-3, abs=0)  # next term is O(x⁸)
@@ -208,7 +208,7 @@ def test_bessel_ratio_limits():
 
 
 def test_round_wire_resistance_ratio_uses_the_skin_depth():
-    """R_ac/R_dc(a, f, ρ) is Re Z/R_dc at a/δ; 1 at DC; references.md §11 value at a/δ = 3 recomputed by mpmath."""
+    """R_ac/R_dc(a, f, ρ) is Re Z/R_dc at a/δ; 1 at DC; docs/methods.md §11 value at a/δ = 3 recomputed by mpmath."""
     delta = float(fq.skin_depth(1e6, RHO_CU))
     value = float(fq.round_wire_resistance_ratio(3 * delta, 1e6, RHO_CU))
     assert value == approx(float(_mp_impedance_ratio(3).real), rel=1e-12, abs=0)
@@ -222,7 +222,7 @@ def test_round_wire_resistance_ratio_uses_the_skin_depth():
 
 
 def _mp_dowell(delta, p, dps=50):
-    """Dowell's averaged Fr = Δ[ς1 + (2/3)(p² − 1)ς2] by mpmath (Dowell 1966; references.md §11)."""
+    """Dowell's averaged Fr = Δ[ς1 + (2/3)(p² − 1)ς2] by mpmath (Dowell 1966; docs/methods.md §11)."""
     with mp.workdps(dps):
         d = mp.mpf(delta)
         s1 = (mp.sinh(2 * d) + mp.sin(2 * d)) / (mp.cosh(2 * d) - mp.cos(2 * d))
@@ -235,7 +235,7 @@ def _mp_dowell(delta, p, dps=50):
     pytest.param(1.0, 5, id="1-p5"), pytest.param(0.5, 3, id="0.5-p3"), pytest.param(2.0, 3, id="2-p3"),
 ])
 def test_dowell_reference_values(delta, layers):
-    """The references.md §11 (b) values (e.g. 1.939965 at Δ = 1, p = 3), recomputed with mpmath."""
+    """The docs/methods.md §11 (b) values (e.g. 1.939965 at Δ = 1, p = 3), recomputed with mpmath."""
     assert float(fq.dowell_factor(delta, layers)) == approx(float(_mp_dowell(delta, layers)), rel=1e-13, abs=0)
 
 
@@ -255,7 +255,7 @@ def test_dowell_switch_point(delta):
 
 
 def test_dowell_limits():
-    """Small Δ: 1 + (5p² − 1)Δ⁴/45 (references.md §11); large Δ: Δ(1 + 2(p² − 1)/3), no overflow at Δ = 1000."""
+    """Small Δ: 1 + (5p² − 1)Δ⁴/45 (docs/methods.md §11); large Δ: Δ(1 + 2(p² − 1)/3), no overflow at Δ = 1000."""
     for p in (1, 3, 6):
         delta = 0.02
         assert float(fq.dowell_factor(delta, p)) - 1 == approx((5 * p * p - 1) * delta**4 / 45, rel=1e-4, abs=0)
@@ -266,7 +266,7 @@ def test_dowell_limits():
 
 
 def test_dowell_delta_porosity_and_warning():
-    """Δ = (√π/2)(d/δ)√η with η = (√π/2)d·N/b (Dowell 1966; references.md §11, pitfall 15); overfull layer warns."""
+    """Δ = (√π/2)(d/δ)√η with η = (√π/2)d·N/b (Dowell 1966; docs/methods.md §11b); overfull layer warns."""
     eta = math.sqrt(math.pi) / 2 * 0.5e-3 * 20 / 12e-3
     expected = math.sqrt(math.pi) / 2 * 5.0 * math.sqrt(eta)
     assert float(fq.dowell_delta(0.5e-3, 0.1e-3, 20, 12e-3)) == approx(expected, rel=1e-14, abs=0)
@@ -333,7 +333,7 @@ def test_litz_low_frequency_scaling_and_warning():
 
 
 def test_self_resonant_frequency_hand_worked():
-    """100 µH with 100 pF resonates at 1591.55 kHz (references.md §10), recomputed by mpmath."""
+    """100 µH with 100 pF resonates at 1591.55 kHz (docs/methods.md §10), recomputed by mpmath."""
     expected = 1 / (2 * mp.pi * mp.sqrt(mp.mpf("100e-6") * mp.mpf("100e-12")))
     assert float(fq.self_resonant_frequency(100e-6, 100e-12)) == approx(float(expected), rel=1e-14, abs=0)
     assert np.isposinf(fq.self_resonant_frequency(1e-6, 0.0))
@@ -359,7 +359,7 @@ def test_coil_impedance_against_the_parallel_formula(f, rp):
 
 
 def test_apparent_inductance_and_resistance_are_im_z_over_omega_and_re_z():
-    """(L_app, R_app) = (Im Z/ω, Re Z) of the model; small R gives L/(1 − ω²LC), R/(1 − ω²LC)² (references.md §10)."""
+    """(L_app, R_app) = (Im Z/ω, Re Z) of the model; small R gives L/(1 − ω²LC), R/(1 − ω²LC)² (docs/methods.md §10)."""
     L, C = 100e-6, 5e-12
     f = np.array([1e5, 1e6, 3e6, 5e6])
     for R in (0.5, 20.0):
@@ -371,7 +371,7 @@ def test_apparent_inductance_and_resistance_are_im_z_over_omega_and_re_z():
     l_small, r_small = fq.apparent_inductance_and_resistance(f, L, 1e-3, C)
     assert np.allclose(l_small, L / detune, rtol=1e-9)
     assert np.allclose(r_small, 1e-3 / detune**2, rtol=1e-9)
-    # references.md §10: 100 µH with 5 pF at 1 MHz looks like 102.014 µH
+    # docs/methods.md §10: 100 µH with 5 pF at 1 MHz looks like 102.014 µH
     w = 2 * mp.pi * mp.mpf(10) ** 6
     expected = mp.mpf("100e-6") / (1 - w**2 * mp.mpf("100e-6") * mp.mpf("5e-12"))
     assert float(fq.apparent_inductance_and_resistance(1e6, L, 0.0, C)[0]) == approx(float(expected), rel=1e-13, abs=0)

@@ -4,7 +4,7 @@ References used below (full entries in the module's docstrings):
 Maxwell 1873 (Treatise vol. 2 art. 701), Rosa & Grover 1912 (Bull. Bureau of
 Standards 8, formulas (1), (2)), DLMF 19.25.1, Grover 1946, Knight 2010 (the
 Rosa/Grover method as set out at g3ynh.info, "Rosa_Km"), and the check values
-of the project's references.md, sections 1, 3 and 5 (tagged (b) there: computed
+of docs/methods.md §1, §3 and §5 (marked "computed here" there: computed
 from the published formulas; every one is reproduced here with mpmath before
 it is compared).
 """
@@ -29,7 +29,7 @@ from coilplan.physics.loops import (
     solenoid_filament_inductance,
 )
 
-#: The rounded mu0 of references.md (4 pi 1e-7 H/m); its check values use it.
+#: The rounded mu0 (4 pi 1e-7 H/m) of the check values in docs/methods.md §1, §3 and §5.
 MU0_REFERENCES = 4 * mpmath.pi * mpmath.mpf(10) ** -7
 
 
@@ -70,7 +70,7 @@ def neumann_reduced(a, b, z, mu0):
 
 
 def nagaoka_coefficient_mp(diameter_over_length):
-    """Nagaoka's K_L for a current sheet, references.md section 1 (Nagaoka 1909)."""
+    """Nagaoka's K_L for a current sheet, docs/methods.md §1 (Nagaoka 1909)."""
     x = mpmath.mpf(diameter_over_length)
     m = x**2 / (1 + x**2)  # k^2 = D^2/(D^2 + l^2)
     k = mpmath.sqrt(m)
@@ -81,12 +81,12 @@ def nagaoka_coefficient_mp(diameter_over_length):
 
 
 def rosa_ks_mp(pitch, wire_diameter):
-    """Rosa's ks (Grover's G) = 5/4 - ln(2p/d), references.md section 3."""
+    """Rosa's ks (Grover's G) = 5/4 - ln(2p/d), docs/methods.md §3."""
     return mpmath.mpf(5) / 4 - mpmath.log(2 * mpmath.mpf(pitch) / mpmath.mpf(wire_diameter))
 
 
 def rosa_km_mp(turns):
-    """Rosa's km (Grover's H) from the strip-GMD form of references.md section 3.
+    """Rosa's km (Grover's H) from the strip-GMD form of docs/methods.md §3.
 
     eps_k = ln(k p) - ln g_k with ln g_k - ln p = [(k+1)^2 ln(k+1) + (k-1)^2 ln(k-1)
     - 2 k^2 ln k]/2 - 3/2; p cancels, so it is left out.
@@ -186,8 +186,8 @@ def test_maxwell_matches_textbook_form_in_mpmath(geometry):
 @pytest.mark.parametrize(
     ("a", "b", "z", "printed_nH"),
     [
-        # references.md section 5, (b): Maxwell's M, "a direct Neumann double
-        # integral reproduces to all printed digits" (computed with mu0 = 4 pi 1e-7).
+        # docs/methods.md §5c, computed there: Maxwell's M, whose every printed digit a direct
+        # Neumann double integral reproduces (computed with mu0 = 4 pi 1e-7).
         pytest.param(0.1, 0.1, 0.1, "49.40784631", id="equal-100mm-z100mm"),
         pytest.param(0.1, 0.05, 0.02, "50.22804434", id="100-50mm-z20mm"),
         pytest.param(0.05, 0.05, 0.001, "250.8177766", id="near-touching-50mm-z1mm"),
@@ -213,7 +213,7 @@ def test_maxwell_against_unreduced_neumann_double_integral():
 
     Reference: F. E. Neumann's formula M = mu0/(4 pi) oint oint dl.dl'/r (textbook
     result), integrated over both angles without the symmetry reduction; the
-    geometry is the first check value of references.md section 5.
+    geometry is the first check value of docs/methods.md §5c.
     """
     a, b, z = 0.1, 0.1, 0.1
     with mpmath.workdps(15):
@@ -316,7 +316,7 @@ def test_maxwell_broadcasts_and_returns_scalars_for_scalars():
 @pytest.mark.parametrize(
     ("R", "rho", "printed_lf_nH", "printed_hf_nH", "printed_gmd_nH"),
     [
-        # references.md section 5, (b): thin-ring formula (Rosa & Grover 1912)
+        # docs/methods.md §5, computed there: thin-ring formula (Rosa & Grover 1912)
         # and the GMD method M(R, R, rho e^-1/4) (Grover 1946).
         pytest.param(0.05, 0.0005, "310.050799", "294.342836", "310.0555", id="R50mm-a0.5mm"),
         pytest.param(0.1, 0.001, "620.1016", "588.6857", None, id="R100mm-a1mm"),
@@ -351,7 +351,7 @@ def test_loop_formula_and_gmd_method_agree_to_order_ratio_squared():
     R = 0.05
     rho = R * np.array([1e-2, 1e-3])
     gap = np.abs(loop_self_inductance_gmd(R, rho) / loop_self_inductance(R, rho) - 1)
-    assert gap[0] < 3e-5  # references.md section 5: 1.5e-5 at R/rho = 100
+    assert gap[0] < 3e-5  # docs/methods.md §5b: 1.5e-5 at R/rho = 100
     assert gap[1] < gap[0] / 50
 
 
@@ -440,7 +440,7 @@ def test_solenoid_sum_matches_mpmath_sum():
 
 
 def test_solenoid_worked_example_against_rosa():
-    """Rosa's worked example (references.md section 3): filament sum vs corrected Nagaoka.
+    """Rosa's worked example (docs/methods.md §3): filament sum vs corrected Nagaoka.
 
     Reference values (b), reproduced here first: Maxwell sum with GMD self terms
     21.097955 uH, Rosa-corrected Nagaoka 21.101609 uH (mu0 = 4 pi 1e-7). Knight
@@ -472,10 +472,10 @@ def test_solenoid_worked_example_against_rosa():
 def test_solenoid_long_coil_limit():
     """A long close-wound coil tends to mu0 N^2 A / l, short by Nagaoka's end effect.
 
-    Long-coil limit: textbook result. End effect: Nagaoka 1909 K_L (references.md
-    section 1). The filament sum differs from the current sheet by Rosa's
-    round-wire correction, (ks + km) p / (pi r) of mu0 N^2 A / l (references.md
-    section 3, with km below its limit ln(2 pi) - 3/2); it bounds the gap to K_L.
+    Long-coil limit: textbook result. End effect: Nagaoka 1909 K_L (docs/methods.md
+    §1). The filament sum differs from the current sheet by Rosa's
+    round-wire correction, (ks + km) p / (pi r) of mu0 N^2 A / l (docs/methods.md
+    §3, with km below its limit ln(2 pi) - 3/2); it bounds the gap to K_L.
     """
     D, p, d = 0.2, 1e-4, 1e-4
     r = D / 2
@@ -517,8 +517,8 @@ def test_solenoid_far_pairs_equal_the_general_filament_sum():
 
 def test_solenoid_sum_at_ten_million_turns_is_the_long_coil_value():
     """The sum's cost no longer grows with N: ten million turns give the long-coil value µ0 π r² N/p times
-    Nagaoka's K_L (references.md §1) less Rosa's round-wire correction (ks + km)·p/(π r) with km at its
-    limit ln(2π) − 3/2 (references.md §3), without ten million evaluations of Maxwell's formula."""
+    Nagaoka's K_L (docs/methods.md §1) less Rosa's round-wire correction (ks + km)·p/(π r) with km at its
+    limit ln(2π) − 3/2 (docs/methods.md §3), without ten million evaluations of Maxwell's formula."""
     D, p, d, n = 0.0255, 0.000535, 0.0005, 10_000_000
     r = D / 2
     long_coil = mu_0 * math.pi * r**2 * n / p

@@ -13,7 +13,7 @@ from coilplan.physics import magnetic as mag
 
 
 def test_iec_60205_ring_example():
-    """ID 15, OD 25, h 10 mm: C1, C2, le, Ae, Ve of references.md §8, recomputed here by mpmath quadrature.
+    """ID 15, OD 25, h 10 mm: C1, C2, le, Ae, Ve of docs/methods.md §8, recomputed here by mpmath quadrature.
 
     The definitions are IEV 221-04-31 (C1 = Σ l/A, C2 = Σ l/A², le = C1²/C2, Ae = C1/C2, Ve = C1³/C2²);
     for a ring the sums are integrals over parallel thin rings: 1/C1 = ∫ h dr/(2πr) and the C2
@@ -25,7 +25,7 @@ def test_iec_60205_ring_example():
     c1, c2 = mag.ring_core_constants(15e-3, 25e-3, 10e-3)
     assert float(c1) == pytest.approx(float(c1_exact), rel=1e-12, abs=0)
     le, ae, ve = mag.effective_parameters(c1, c2)
-    assert float(le) * 1e3 == pytest.approx(60.1802, abs=5e-5)  # references.md §8, (b)
+    assert float(le) * 1e3 == pytest.approx(60.1802, abs=5e-5)  # docs/methods.md §8, (b)
     assert float(ae) * 1e6 == pytest.approx(48.9268, abs=5e-5)
     assert float(ve) * 1e9 == pytest.approx(2944.42, abs=5e-3)
     assert float(le) < math.pi * 20e-3  # le is shorter than the mean circumference (pitfall 8)
@@ -35,14 +35,14 @@ def test_iec_60205_ring_example():
 @given(inner=st.floats(min_value=1e-3, max_value=0.1), ratio=st.floats(min_value=1.05, max_value=5.0),
        height=st.floats(min_value=1e-3, max_value=0.05), mu=st.floats(min_value=1.0, max_value=2e4))
 def test_ring_al_equals_amperes_law(inner, ratio, height, mu):
-    """µ0 µr Ae/le equals ∫ µ0 µr h dr/(2πr) = µ0 µr h ln(OD/ID)/(2π) (Ampère's law; references.md §8)."""
+    """µ0 µr Ae/le equals ∫ µ0 µr h dr/(2πr) = µ0 µr h ln(OD/ID)/(2π) (Ampère's law; docs/methods.md §8)."""
     le, ae, _ = mag.effective_parameters(*mag.ring_core_constants(inner, inner * ratio, height))
     exact = mu_0 * mu * height * math.log(ratio) / (2 * math.pi)
     assert float(mag.al_value(mu, ae, le)) == pytest.approx(exact, rel=1e-12, abs=0)
 
 
 def test_gapped_al_published_relation_and_limits():
-    """AL = µ0 Ae/(lg + le/µr): 239.359 nH and µe = 95.238 for the references.md §8 example; limits."""
+    """AL = µ0 Ae/(lg + le/µr): 239.359 nH and µe = 95.238 for the docs/methods.md §8 example; limits."""
     ae, le, mu = 100e-6, 50e-3, 2000.0
     al = float(mag.gapped_al(ae, le, 0.5e-3, mu))
     assert al * 1e9 == pytest.approx(mu_0 * ae / (0.5e-3 + le / mu) * 1e9, rel=1e-14, abs=0)
@@ -56,7 +56,7 @@ def test_gapped_al_published_relation_and_limits():
 
 
 def test_fringing_factor_worked_value():
-    """McLyman's F = 1 + (lg/√Ae) ln(2G/lg) = 1.1844 for lg 0.5 mm, Ae 100 mm², G 10 mm (references.md §8)."""
+    """McLyman's F = 1 + (lg/√Ae) ln(2G/lg) = 1.1844 for lg 0.5 mm, Ae 100 mm², G 10 mm (docs/methods.md §8)."""
     assert float(mag.fringing_factor(0.5e-3, 100e-6, 10e-3)) == pytest.approx(1.1844, abs=5e-5)
     assert float(mag.fringing_factor(0.0, 100e-6, 10e-3)) == 1.0
     gaps = np.array([0.1e-3, 0.3e-3, 1e-3])

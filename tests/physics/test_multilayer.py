@@ -18,7 +18,7 @@ from coilplan.physics.multilayer import (
 )
 from coilplan.physics.solenoid import solenoid_inductance
 
-#: Brooks coil constant, L = 1.69938e-6 · a · N² H (Brooks; Grover; references.md §4, a (b) value).
+#: Brooks coil constant, L = 1.69938e-6 · a · N² H (Brooks; Grover; docs/methods.md §4, a (b) value).
 BROOKS_CONSTANT = 1.69938e-6
 
 
@@ -30,7 +30,7 @@ def _sheet_winding(mean_radius, length, depth, cell):
 
 
 def test_wheeler_multilayer_within_one_percent_where_terms_are_equal():
-    """6a = 9b = 10c: Wheeler claims 1 % (Wheeler 1928; references.md §4); the exact sum agrees within it."""
+    """6a = 9b = 10c: Wheeler claims 1 % (Wheeler 1928; docs/methods.md §4); the exact sum agrees within it."""
     a, b, c = 0.015, 0.010, 0.009  # 6a = 9b = 10c = 0.09 m
     inner, width, turns = _sheet_winding(a, b, c, 0.0005)
     exact = multilayer_filament_inductance(inner, width, 0.0005, turns)
@@ -51,7 +51,7 @@ def test_wheeler_multilayer_error_outside_its_range_is_larger_and_warned():
     with pytest.warns(OutsideValidityWarning, match="about equal"):
         wheeler = wheeler_multilayer_inductance(a, b, c, turns)
     pancake_error = abs(wheeler / exact - 1)
-    # references.md §4 pitfall 6: the error grows when the terms are unequal (about 6 % here, computed).
+    # docs/methods.md §4a: the error grows when the terms are unequal (about 6 % here, computed).
     assert pancake_error > 2 * equal_error and pancake_error > 0.02
 
 

@@ -1,6 +1,6 @@
 """LC-tank kernels: resonance, the band rule, the padder's series combination and the voltage across a tank.
 
-Reference values are those of references.md §10, recomputed here with mpmath from f = 1/(2π√(LC)) (tagged (b)
+Reference values are those of docs/methods.md §10, recomputed here with mpmath from f = 1/(2π√(LC)) (tagged (b)
 there), and hand-worked cases whose arithmetic is written out beside them.
 """
 
@@ -17,14 +17,14 @@ from coilplan.physics import resonance as rs
 
 
 def mp_frequency(inductance, capacitance):
-    """f = 1/(2π√(LC)) at 30 digits (Thomson's resonance; references.md §10)."""
+    """f = 1/(2π√(LC)) at 30 digits (Thomson's resonance; docs/methods.md §10)."""
     with mp.workdps(30):
         return 1 / (2 * mp.pi * mp.sqrt(mp.mpf(inductance) * mp.mpf(capacitance)))
 
 
 @pytest.mark.parametrize(("inductance", "capacitance"), [
-    pytest.param(100e-6, 100e-12, id="100uH-100pF"),  # references.md §10: 1591.55 kHz
-    pytest.param(240e-6, 365e-12, id="240uH-365pF"),  # references.md §10: 537.73 kHz
+    pytest.param(100e-6, 100e-12, id="100uH-100pF"),  # docs/methods.md §10: 1591.55 kHz
+    pytest.param(240e-6, 365e-12, id="240uH-365pF"),  # docs/methods.md §10: 537.73 kHz
     pytest.param(2.2e-6, 47e-12, id="2.2uH-47pF"),
 ])
 def test_resonant_frequency_against_mpmath(inductance, capacitance):
@@ -40,7 +40,7 @@ def test_hand_worked_100uH_100pF():
 
 
 def test_inductance_to_reach_530kHz_with_365pF():
-    """L = 1/((2π·530 kHz)²·365 pF), computed with mpmath (references.md §10: 247.06 µH)."""
+    """L = 1/((2π·530 kHz)²·365 pF), computed with mpmath (docs/methods.md §10: 247.06 µH)."""
     with mp.workdps(30):
         expected = 1 / ((2 * mp.pi * mp.mpf(530e3)) ** 2 * mp.mpf("365e-12"))
     assert float(rs.resonant_inductance(530e3, 365e-12)) == pytest.approx(float(expected), rel=1e-14, abs=0)
@@ -60,8 +60,8 @@ def test_the_three_forms_invert_each_other(inductance, capacitance):
 
 
 def test_band_ratio_530_to_1700_kHz():
-    """(1700/530)² = (170/53)² = 28900/2809 exactly (references.md §10: ≥ 10.288); with 365 pF total maximum the
-    total minimum must be at most 365·2809/28900 pF (references.md §10: 35.48 pF)."""
+    """(1700/530)² = (170/53)² = 28900/2809 exactly (docs/methods.md §10: ≥ 10.288); with 365 pF total maximum the
+    total minimum must be at most 365·2809/28900 pF (docs/methods.md §10: 35.48 pF)."""
     ratio = Fraction(170, 53) ** 2
     assert float(rs.band_capacitance_ratio(530e3, 1700e3)) == pytest.approx(float(ratio), rel=1e-15, abs=0)
     # the band rule Cmax,total/Cmin,total ≥ R: the largest total minimum is Cmax,total/R

@@ -22,7 +22,7 @@ INF = math.inf
 
 
 def mp_spheroid(m, dps=40):
-    """Osborn 1945 / Stoner closed form of the prolate spheroid's axial factor, in mpmath (references.md §9)."""
+    """Osborn 1945 / Stoner closed form of the prolate spheroid's axial factor, in mpmath (docs/methods.md §9)."""
     with mp.workdps(dps):
         m = mp.mpf(m)
         root = mp.sqrt(m * m - 1)
@@ -30,7 +30,7 @@ def mp_spheroid(m, dps=40):
 
 
 def mp_maxwell(a, b, z):
-    """Maxwell's mutual inductance of coaxial circles, textbook elliptic form, per µ0 (references.md §5)."""
+    """Maxwell's mutual inductance of coaxial circles, textbook elliptic form, per µ0 (docs/methods.md §5)."""
     with mp.workdps(max(mp.mp.dps, 40)):  # k² = 1 − O(z²): keep it off 1 at the nodes near z = 0
         z = max(z, mp.mpf("1e-15"))  # the log singularity of a = b; [0, 1e-15] adds ~1e-14 relative
         k2 = 4 * a * b / ((a + b) ** 2 + z * z)
@@ -54,7 +54,7 @@ def mp_midplane_flux_factor(gamma, dps=20):
 
 # ---------------------------------------------------------------- spheroid (for comparison only)
 
-# references.md §9, (b) values of the closed form; re-derived here with mpmath before use.
+# docs/methods.md §9, (b) values of the closed form; re-derived here with mpmath before use.
 SPHEROID_B = [
     pytest.param(2.0, 0.17356400, id="m=2"),
     pytest.param(5.0, 0.05582097, id="m=5"),
@@ -65,9 +65,9 @@ SPHEROID_B = [
 
 @pytest.mark.parametrize(("m", "listed"), SPHEROID_B)
 def test_spheroid_matches_references_values_via_mpmath(m, listed):
-    """The closed form (Osborn 1945), evaluated in mpmath, gives references.md's eight decimals, and so do we."""
+    """The closed form (Osborn 1945), evaluated in mpmath, gives docs/methods.md §9b's eight decimals; so do we."""
     exact = float(mp_spheroid(m))
-    assert abs(exact - listed) <= 0.6e-8  # references.md prints 8 decimals
+    assert abs(exact - listed) <= 0.6e-8  # docs/methods.md §9b prints 8 decimals
     assert abs(float(rod.spheroid_demagnetising_factor(m)) / exact - 1) < 1e-13
 
 
@@ -104,7 +104,7 @@ def test_spheroid_special_shapes():
 
 @pytest.mark.parametrize("gamma", [0.5, 1.0, 2.0, 5.0, 10.0, 20.0, 30.0])
 def test_magnetometric_factor_at_zero_susceptibility_is_one_minus_nagaoka(gamma):
-    """N_m(χ = 0) = 1 − K_L(d/l) exactly (Chen et al. 1991; references.md §1, §9), K_L from mpmath."""
+    """N_m(χ = 0) = 1 − K_L(d/l) exactly (Chen et al. 1991; docs/methods.md §1, §9), K_L from mpmath."""
     exact = float(1 - ref.nagaoka(1 / gamma))
     with warnings.catch_warnings():
         warnings.simplefilter("ignore", OutsideValidityWarning)  # γ < 2 warns only for χ > 0; none here
@@ -112,7 +112,7 @@ def test_magnetometric_factor_at_zero_susceptibility_is_one_minus_nagaoka(gamma)
     assert abs(ours / exact - 1) < 1e-11  # rounding in the slice sums, ~1e-12 at γ = 30
 
 
-# references.md §9, χ = 0 N_f column, (b); recomputed here by mpmath quadrature before use.
+# docs/methods.md §9, χ = 0 N_f column, (b); recomputed here by mpmath quadrature before use.
 FLUXMETRIC_ZERO_CHI_B = [
     pytest.param(1.0, 0.2322108, id="gamma=1"),
     pytest.param(2.0, 0.0935061, id="gamma=2"),
@@ -126,7 +126,7 @@ FLUXMETRIC_ZERO_CHI_B = [
 def test_fluxmetric_factor_at_zero_susceptibility(gamma, listed):
     """N_f(χ = 0) equals the midplane flux of the equivalent current sheet, by mpmath quadrature (derived here)."""
     exact = float(mp_midplane_flux_factor(gamma))
-    assert abs(exact - listed) <= 0.6 * 10 ** (math.floor(math.log10(listed)) - 5)  # references.md's 6 digits
+    assert abs(exact - listed) <= 0.6 * 10 ** (math.floor(math.log10(listed)) - 5)  # docs/methods.md §9c: 6 digits
     # stated accuracy: the midplane is averaged over the two central slices, Richardson-extrapolated
     assert abs(float(rod.cylinder_demagnetising_factor(gamma, 0.0)) / exact - 1) < 2e-7
 
@@ -142,7 +142,7 @@ def test_fluxmetric_factor_is_not_the_on_axis_value(gamma):
 
 # ---------------------------------------------------------------- cylinder at finite χ
 
-# references.md §9: a 1-D integral-equation model of the kind Chen et al. 1991 use for γ >= 10,
+# docs/methods.md §9: a 1-D integral-equation model of the kind Chen et al. 1991 use for γ >= 10,
 # computed there (b) and printed to 5 significant digits. Ours is the same kind of model with its own
 # discretisation (converged to ~1e-5), so agreement is expected to the table's rounding plus a
 # discretisation difference: 2e-4 relative.
@@ -158,7 +158,7 @@ FINITE_CHI_B = [
 
 @pytest.mark.parametrize(("gamma", "chi", "flux", "magnet"), FINITE_CHI_B)
 def test_finite_susceptibility_against_the_one_dimensional_table(gamma, chi, flux, magnet):
-    """N_f and N_m at finite χ agree with references.md §9's 1-D model computation to 2e-4 relative."""
+    """N_f and N_m at finite χ agree with docs/methods.md §9's 1-D model computation to 2e-4 relative."""
     assert float(rod.cylinder_demagnetising_factor(gamma, chi, "fluxmetric")) == pytest.approx(flux, rel=2e-4, abs=0)
     ours = float(rod.cylinder_demagnetising_factor(gamma, chi, "magnetometric"))
     assert ours == pytest.approx(magnet, rel=2e-4, abs=0)
@@ -170,7 +170,7 @@ def test_high_permeability_rod_against_bozorth():
 
 
 def test_cylinder_differs_from_ellipsoid_as_references_state():
-    """γ = 10, μi = 2000: μ_rod is 56.8 with the cylinder's N_f and 48.1 with the ellipsoid's (references.md §9)."""
+    """γ = 10, μi = 2000: μ_rod is 56.8 with the cylinder's N_f and 48.1 with the ellipsoid's (docs/methods.md §9)."""
     assert float(rod.rod_permeability(2000.0, 10.0)) == pytest.approx(56.8, abs=0.05)
     ellipsoid = 2000.0 / (1 + float(rod.spheroid_demagnetising_factor(10.0)) * 1999.0)
     assert ellipsoid == pytest.approx(48.1, abs=0.05)
@@ -214,7 +214,7 @@ def test_short_rod_warns():
 
 
 def test_rod_permeability_limits():
-    """μi = 1 gives 1; a very long rod gives μi; μi → ∞ gives 1/N_f (the defining relation, references.md §9)."""
+    """μi = 1 gives 1; a very long rod gives μi; μi → ∞ gives 1/N_f (the defining relation, docs/methods.md §9)."""
     assert float(rod.rod_permeability(1.0, 10.0)) == 1.0
     assert float(rod.rod_permeability(10.0, 1000.0)) == pytest.approx(10.0, rel=1e-4, abs=0)
     assert float(rod.rod_permeability(INF, 10.0)) == pytest.approx(

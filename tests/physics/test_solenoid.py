@@ -14,7 +14,7 @@ from coilplan.errors import OutsideValidityWarning
 from coilplan.physics import solenoid as sol
 
 # Grover 1946, Table 36 (K against l/D), six decimals, as transcribed in a public file
-# (references.md §1, item (a)); the tolerance is the table's rounding.
+# (docs/methods.md §1, item (a)); the tolerance is the table's rounding.
 GROVER_TABLE_36 = [
     pytest.param(1.0, 0.688423, id="D/l=1"),
     pytest.param(2.0, 0.525510, id="l/D=0.5"),
@@ -78,8 +78,8 @@ def test_nagaoka_limits_and_masks():
 
 
 def test_nagaoka_is_one_minus_demagnetising_factor():
-    """1 − K_L is the magnetometric demagnetising factor of a cylinder (χ = 0), references.md §9."""
-    # Values (b) in references.md §9 come from the same identity; recompute via mpmath here.
+    """1 − K_L is the magnetometric demagnetising factor of a cylinder (χ = 0), docs/methods.md §9."""
+    # Values (b) in docs/methods.md §9 come from the same identity; recompute via mpmath here.
     for length_over_diameter in (1, 2, 5, 10, 20):
         exact = 1 - ref.nagaoka(1 / length_over_diameter)
         ours = 1 - float(sol.nagaoka_coefficient(1 / length_over_diameter))
@@ -94,7 +94,7 @@ def test_wheeler_1928_within_published_accuracy_where_it_applies():
 
 
 def test_wheeler_1928_outside_range_warns_and_degrades():
-    """Outside l > 0.8 r the formula warns; at l = 0.2 r it is about 11 % low (references.md §2a)."""
+    """Outside l > 0.8 r the formula warns; at l = 0.2 r it is about 11 % low (docs/methods.md §2a)."""
     with pytest.warns(OutsideValidityWarning):
         value = sol.wheeler_1928_coefficient(10.0)  # l = 0.2 r
     error = float(value) / float(ref.nagaoka(10.0)) - 1
@@ -116,7 +116,7 @@ def test_wheeler_1982_and_lundin_accuracy():
     assert np.max(np.abs(sol.lundin_coefficient(ratios) / exact - 1)) < 3e-6
 
 
-# Grover 1946, km table p. 150 as reproduced by Knight ("Table 7#1"), references.md §3 (a).
+# Grover 1946, km table p. 150 as reproduced by Knight ("Table 7#1"), docs/methods.md §3 (a).
 GROVER_KM = [(2, 0.1137), (3, 0.1663), (4, 0.1973), (5, 0.2180), (10, 0.2664), (20, 0.2964),
              (30, 0.3079), (50, 0.3182), (100, 0.3269)]
 
@@ -135,7 +135,7 @@ def test_rosa_km_against_mpmath_sum(turns):
 
 
 def test_rosa_km_limit_and_interpolation():
-    """km → ln(2π) − 3/2 (references.md §3); non-integer N lies between its neighbours."""
+    """km → ln(2π) − 3/2 (docs/methods.md §3); non-integer N lies between its neighbours."""
     limit = math.log(2 * math.pi) - 1.5
     assert abs(float(sol.rosa_km(2**20)) - limit) < 1e-5
     # far beyond the table (the tails in closed form): km(N) = limit − O(ln N / N), rising towards it
@@ -148,17 +148,17 @@ def test_rosa_km_limit_and_interpolation():
 
 
 def test_rosa_ks_values():
-    """ks = 5/4 − ln(2p/d): 5/4 − ln 2 close wound, zero at p/d = e^(5/4)/2 (references.md §3)."""
+    """ks = 5/4 − ln(2p/d): 5/4 − ln 2 close wound, zero at p/d = e^(5/4)/2 (docs/methods.md §3)."""
     assert math.isclose(float(sol.rosa_ks(1.0, 1.0)), 1.25 - math.log(2), rel_tol=1e-15)
     assert abs(float(sol.rosa_ks(math.exp(1.25) / 2, 1.0))) < 1e-15
 
 
 def test_rosa_worked_example_against_mpmath():
-    """D = 50 mm, p = 2 mm, N = 25, d = 1 mm: 21.1016 µH (references.md §3, recomputed with mpmath)."""
+    """D = 50 mm, p = 2 mm, N = 25, d = 1 mm: 21.1016 µH (docs/methods.md §3, recomputed with mpmath)."""
     ours = float(sol.solenoid_inductance(0.05, 0.002, 0.001, 25))
     exact = float(ref.rosa_solenoid(0.05, 0.002, 0.001, 25, mu_0))
     assert math.isclose(ours, exact, rel_tol=1e-12)
-    assert abs(ours * 1e6 - 21.101609) < 2e-6  # the (b) value printed in references.md
+    assert abs(ours * 1e6 - 21.101609) < 2e-6  # the value printed in docs/methods.md §3
 
 
 def test_long_coil_limit():
