@@ -28,8 +28,8 @@ from __future__ import annotations
 import math
 import warnings
 from collections.abc import Mapping
-from dataclasses import dataclass, field
 
+from coilplan.answer import Answer
 from coilplan.apparent import GivenCapacitance
 from coilplan.calibrate import calibrate
 from coilplan.errors import CoilplanWarning, InvalidInputError, MeasurementWarning, OutsideValidityWarning
@@ -37,36 +37,6 @@ from coilplan.quantities import format_quantity
 from coilplan.request import Request
 
 __all__ = ["Answer", "core_at_operating_frequency", "design"]
-
-
-@dataclass(frozen=True)
-class Answer:
-    """The whole answer for one coil: the form as solved, the figures, warnings and cautions.
-
-    Attributes
-    ----------
-    form : CoilForm
-        The form as it was solved: calibrated, with its core at the operating frequency.
-    result : Mapping
-        The figures in SI units, the unit in the key (what ``--json`` prints as ``result``).
-    warnings, cautions : tuple of str
-    measured : Measured, optional
-        The readings and their calibration.
-    """
-
-    form: object
-    result: Mapping
-    warnings: tuple[str, ...] = ()
-    cautions: tuple[str, ...] = ()
-    measured: object = None
-    request: Request = field(default_factory=Request)
-
-    def to_json(self) -> dict:
-        """The answer as plain JSON types: ``{"result", "warnings", "cautions"}``."""
-        from coilplan.report.json_report import clean
-
-        return {"result": clean(dict(self.result)), "warnings": list(self.warnings),
-                "cautions": list(self.cautions)}
 
 
 def design(form, request: Request) -> Answer:

@@ -7,6 +7,7 @@ import numpy as np
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.apparent import ApparentForm, frequency_fields
 from coilplan.cli import main
 from coilplan.errors import InfeasibleError
@@ -22,7 +23,7 @@ def coil():
 def run_json(*args):
     result = CliRunner().invoke(main, [*args, "--json"])
     assert result.exit_code == 0, result.stdout + result.stderr
-    return json.loads(result.stdout)
+    return flat_document(json.loads(result.stdout))
 
 
 @pytest.mark.parametrize("frequency", [1e6, 7e6, 14e6])

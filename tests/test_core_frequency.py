@@ -17,6 +17,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.constants import mu_0
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 from coilplan.physics import dispersion as disp
 
@@ -32,7 +33,7 @@ def run(*args):
 def run_json(*args):
     outcome = run(*args, "--json")
     assert outcome.exit_code == 0, outcome.stdout + outcome.stderr
-    return json.loads(outcome.stdout)
+    return flat_document(json.loads(outcome.stdout))
 
 
 def debye_real(f, mu_i, f_r):

@@ -8,6 +8,7 @@ import math
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat, flat_document
 from coilplan.cli import main
 from coilplan.design import design
 from coilplan.errors import InvalidInputError
@@ -19,7 +20,7 @@ from coilplan.wire import parse_wire
 def run_json(*args):
     outcome = CliRunner().invoke(main, [*args, "--json"])
     assert outcome.exit_code == 0, outcome.stdout + outcome.stderr
-    return json.loads(outcome.stdout)
+    return flat_document(json.loads(outcome.stdout))
 
 
 def close(ours, theirs, rel=1e-9):
@@ -81,7 +82,7 @@ def test_a_command_answers_what_the_python_api_answers(name):
         form = RodCoil(**{**form.__dict__, "saturation_flux_density":
                           float(material("nizn-250").saturation_flux_density(20.0))})
     answer = design(form, request)
-    close(document["result"], json.loads(json.dumps(answer.to_json()))["result"])
+    close(document["result"], flat(json.loads(json.dumps(answer.to_json()))["result"]))
     assert document["warnings"] == list(answer.warnings)
     assert document["cautions"] == list(answer.cautions)
 

@@ -29,6 +29,7 @@ import pytest
 from click.testing import CliRunner
 
 import coilplan.report.plot as plot_module
+from coilplan.answer import flat_document
 from coilplan.cli import main
 from coilplan.files import FileWriteError, write_all_atomically
 
@@ -381,7 +382,7 @@ def test_killed_process_leaves_the_log_readable(tmp_path):
     assert len(stray) == 1 and stray[0].startswith(".coil.json.")
     result = run("trim", "add", log, "--measured", "96uH@27", "--json")
     assert result.exit_code == 0, result.stderr
-    assert [reading["turns"] for reading in json.loads(result.stdout)["result"]["readings"]] == [20, 27]
+    assert [reading["turns"] for reading in flat_document(json.loads(result.stdout))["result"]["readings"]] == [20, 27]
 
 
 def test_a_set_of_files_changes_all_or_none(tmp_path, monkeypatch):

@@ -12,6 +12,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.constants import mu_0
 
+from coilplan.answer import flat_document
 from coilplan.calibrate import ScaledForm
 from coilplan.cli import main
 from coilplan.forms import ClosedCore, Solenoid
@@ -29,7 +30,7 @@ from coilplan.wire import parse_wire
 def run_json(*args):
     result = CliRunner().invoke(main, [*args, "--json"])
     assert result.exit_code == 0, result.stdout + result.stderr
-    return json.loads(result.stdout)
+    return flat_document(json.loads(result.stdout))
 
 
 def test_closed_core_twenty_turn_example():

@@ -32,12 +32,19 @@ def clean(value: Any) -> Any:
 
 def json_document(command: str, inputs: Mapping[str, Any], result: Mapping[str, Any],
                   warnings: Sequence[str] = (), cautions: Sequence[str] = ()) -> str:
-    """Serialise one command's answer as the ``--json`` object (indented, sorted keys kept in order).
+    """Serialise one command's answer as the ``--json`` object (indented, keys in the order given).
+
+    A coil's answer (:data:`coilplan.answer.FORM_COMMANDS`) is written in its parts
+    (:func:`coilplan.answer.parts_of`); every document names the schema it follows.
 
     Examples
     --------
     >>> print(json_document("wire", {"wire": "24awg"}, {"diameter_m": 0.000510559}))
     {
+      "schema": {
+        "name": "coilplan-output",
+        "version": 2
+      },
       "command": "wire",
       "inputs": {
         "wire": "24awg"
@@ -49,7 +56,12 @@ def json_document(command: str, inputs: Mapping[str, Any], result: Mapping[str, 
       "cautions": []
     }
     """
+    from coilplan.answer import FORM_COMMANDS, SCHEMA_NAME, SCHEMA_VERSION, parts_of
+
+    if command in FORM_COMMANDS:
+        result = parts_of(result)
     document = {
+        "schema": {"name": SCHEMA_NAME, "version": SCHEMA_VERSION},
         "command": command,
         "inputs": clean(dict(inputs)),
         "result": clean(dict(result)),

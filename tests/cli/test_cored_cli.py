@@ -7,6 +7,7 @@ import pytest
 from click.testing import CliRunner
 from scipy.constants import mu_0
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 
 RING = ["toroid", "--od", "25mm", "--id", "15mm", "--height", "10mm", "--wire", "0.5mm"]
@@ -20,7 +21,7 @@ def run(*args):
 def run_json(*args):
     result = run(*args, "--json")
     assert result.exit_code == 0, result.stdout + result.stderr
-    return json.loads(result.stdout)["result"]
+    return flat_document(json.loads(result.stdout))["result"]
 
 
 def test_air_toroid_is_amperes_law():

@@ -10,6 +10,7 @@ import math
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cautions import salvaged_mains_caution
 from coilplan.cli import main
 
@@ -28,7 +29,7 @@ def run(*args):
 def run_json(*args):
     result = run(*args, "--json")
     assert result.exit_code == 0, result.stdout + result.stderr
-    return json.loads(result.stdout)
+    return flat_document(json.loads(result.stdout))
 
 
 ADDED = ("--before", henry_text(90), "--after", henry_text(110), "--added", "20")
@@ -38,7 +39,7 @@ TEST_WINDING = ("--test-winding", f"{henry_text(10)}@10", "--unknown", henry_tex
 def test_json_document_shape_and_keys():
     """--json: {command, inputs, result, warnings, cautions}; result and per-method keys as documented."""
     document = run_json(*ADDED, *TEST_WINDING)
-    assert list(document) == ["command", "inputs", "result", "warnings", "cautions"]
+    assert list(document) == ["schema", "command", "inputs", "result", "warnings", "cautions"]
     assert document["command"] == "count-turns"
     result = document["result"]
     assert {"turns", "turns_exact", "turns_range", "method", "methods"} <= set(result)

@@ -10,6 +10,7 @@ import math
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 
 AIR = ["solenoid", "--former", "25mm", "--wire", "0.5mm"]
@@ -24,7 +25,7 @@ def run(*args):
 def run_json(*args):
     outcome = run(*args, "--json")
     assert outcome.exit_code == 0, outcome.stdout + outcome.stderr
-    return json.loads(outcome.stdout)["result"]
+    return flat_document(json.loads(outcome.stdout))["result"]
 
 
 def apparent(inductance, frequency, capacitance):

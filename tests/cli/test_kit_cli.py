@@ -7,6 +7,7 @@ import pathlib
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 
 EXAMPLE = pathlib.Path(__file__).resolve().parents[2] / "examples" / "kit_classroom.toml"
@@ -93,8 +94,8 @@ def test_json_is_one_document(plan):
     """--json prints the plan as one JSON object of the shared shape."""
     result = run("kit", plan, "--json")
     assert result.exit_code == 0, result.stderr
-    document = json.loads(result.stdout)
-    assert list(document) == ["command", "inputs", "result", "warnings", "cautions"]
+    document = flat_document(json.loads(result.stdout))
+    assert list(document) == ["schema", "command", "inputs", "result", "warnings", "cautions"]
     assert document["result"]["complete"] is True
 
 
@@ -145,7 +146,7 @@ def test_large_plan_shows_progress_on_stderr_only(tmp_path):
     assert result.stdout.startswith(f"Kit plan {path}: 60 of 60 coils placed")
     quiet = run("kit", path, "--json")
     assert quiet.exit_code == 0 and quiet.stderr == ""
-    assert json.loads(quiet.stdout)["result"]["coils_placed"] == 60
+    assert flat_document(json.loads(quiet.stdout))["result"]["coils_placed"] == 60
 
 
 MIXED = """
@@ -252,9 +253,9 @@ def test_a_cored_coil_in_a_kit_has_the_core_loss_and_drift_the_form_command_give
     result = run("kit", plan, "--out", tmp_path / "out")
     assert result.exit_code == 0, result.stderr
     placed = json.loads((tmp_path / "out" / "plan.json").read_text(encoding="utf-8"))["result"]["placements"][0]
-    single = json.loads(run("toroid", "--od", "12.7mm", "--id", "7.7mm", "--height", "4.8mm", "--material",
-                            "nizn-125", "--wire", "26awg", "--turns", placed["turns"], "--at", "14MHz",
-                            "--json").stdout)["result"]
+    single = flat_document(json.loads(run("toroid", "--od", "12.7mm", "--id", "7.7mm", "--height", "4.8mm",
+                                          "--material", "nizn-125", "--wire", "26awg", "--turns", placed["turns"],
+                                          "--at", "14MHz", "--json").stdout))["result"]
     # the kit winds by hand (the packing and lead settings change the copper a little), the core is the same
     assert placed["q"] == pytest.approx(single["q"], rel=1e-2)
     assert placed["q"] < 0.5 * single["copper_q"]  # the core's loss dominates at 14 MHz

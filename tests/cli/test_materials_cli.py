@@ -10,6 +10,7 @@ from pathlib import Path
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 
 CORE_DATA = Path(__file__).resolve().parents[2] / "core_data"
@@ -57,8 +58,8 @@ def test_listing_json_matches_the_csv():
     """--json lists every class with the documented keys, SI values converted from the CSV."""
     result = run("--json")
     assert result.exit_code == 0, result.output
-    document = json.loads(result.stdout)
-    assert list(document) == ["command", "inputs", "result", "warnings", "cautions"]
+    document = flat_document(json.loads(result.stdout))
+    assert list(document) == ["schema", "command", "inputs", "result", "warnings", "cautions"]
     assert document["command"] == "materials"
     assert document["inputs"] == {"material": None, "mu": None, "tolerance": None}
     items = document["result"]["materials"]
@@ -103,7 +104,7 @@ def test_identify_by_permeability_json():
     """--mu 130 ranks the NiZn-125 class first, inside its range, with the salvage caution."""
     result = run("--mu", "130", "--json")
     assert result.exit_code == 0, result.output
-    document = json.loads(result.stdout)
+    document = flat_document(json.loads(result.stdout))
     assert document["inputs"] == {"material": None, "mu": 130.0, "tolerance": 0.25}
     found = document["result"]["materials"]
     assert found[0]["name"] == "nizn-125" and found[0]["inside_range"] is True

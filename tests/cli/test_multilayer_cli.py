@@ -5,6 +5,7 @@ import json
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 from coilplan.physics.multilayer import multilayer_filament_inductance, spiral_filament_inductance
 
@@ -21,14 +22,14 @@ def run(*args):
 def run_json(*args):
     result = run(*args, "--json")
     assert result.exit_code == 0, result.output + result.stderr
-    return json.loads(result.stdout)
+    return flat_document(json.loads(result.stdout))
 
 
 @pytest.mark.parametrize("base", [ML, SP], ids=["multilayer", "spiral"])
 def test_json_keys_and_round_trip(base):
     """--target gives whole turns; the result has the issue's keys; --turns of that count gives the same L."""
     document = run_json(*base, "--target", "50uH")
-    assert set(document) == {"command", "inputs", "result", "warnings", "cautions"}
+    assert set(document) == {"schema", "command", "inputs", "result", "warnings", "cautions"}
     result = document["result"]
     for key in KEYS:
         assert key in result, key

@@ -5,6 +5,7 @@ import json
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 
 RING = ["toroid", "--od", "23mm", "--id", "14mm", "--height", "7mm", "--wire", "0.5mm"]
@@ -35,7 +36,7 @@ def test_a_reading_at_more_turns_than_the_planned_wire_holds_was_of_another_wind
     (thinner wire: a core's AL does not depend on it), so the answer is a whole winding, said in a note."""
     outcome = run(*RING, "--measured", "55uH@500", "--target", "1uH", "--json")
     assert outcome.exit_code == 0, outcome.stderr
-    result = json.loads(outcome.stdout)["result"]
+    result = flat_document(json.loads(outcome.stdout))["result"]
     assert "turns_now" not in result and any("another winding" in note for note in result["notices"])
     # L = AL·N² with AL = 55 µH/500² (docs/methods.md §8): 1 µH needs 500·√(1/55) turns
     assert result["turns_exact"] == pytest.approx(500 * (1 / 55) ** 0.5, rel=1e-9)
@@ -53,7 +54,7 @@ def test_the_range_stops_at_one_turn_rather_than_opening():
     """A band whose lower end is below one turn ends at the single turn (never null in the JSON)."""
     outcome = run("rewind", "--measured", "1.2uH@3", "--target", "150nH", "--tolerance", "40%", "--json")
     assert outcome.exit_code == 0, outcome.stderr
-    result = json.loads(outcome.stdout)["result"]
+    result = flat_document(json.loads(outcome.stdout))["result"]
     assert result["turns_range"][0] == 1 and None not in result["turns_range"]
 
 

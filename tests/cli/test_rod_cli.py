@@ -5,6 +5,7 @@ import json
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 from coilplan.physics.rod import rod_permeability
 
@@ -18,7 +19,7 @@ def run(*args):
 def run_json(*args):
     result = run(*args, "--json")
     assert result.exit_code == 0, result.stdout + result.stderr
-    return json.loads(result.stdout)
+    return flat_document(json.loads(result.stdout))
 
 
 def test_rod_raises_inductance_and_warns_until_calibrated():

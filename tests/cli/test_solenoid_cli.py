@@ -8,6 +8,7 @@ import pytest
 from click.testing import CliRunner
 from scipy.constants import mu_0
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 
 BASE = ["solenoid", "--former", "25mm", "--wire", "0.5mm"]
@@ -20,13 +21,13 @@ def run(*args):
 def run_json(*args):
     result = run(*args, "--json")
     assert result.exit_code == 0, result.output + result.stderr
-    return json.loads(result.stdout)
+    return flat_document(json.loads(result.stdout))
 
 
 def test_inverse_json_shape_and_round_trip():
     """--target gives whole turns whose neighbours bracket the target; the JSON has design.md's shape."""
     document = run_json(*BASE, "--target", "10uH")
-    assert set(document) == {"command", "inputs", "result", "warnings", "cautions"}
+    assert set(document) == {"schema", "command", "inputs", "result", "warnings", "cautions"}
     result = document["result"]
     assert isinstance(result["turns"], int)
     assert result["inductance_below_H"] <= 10e-6 <= result["inductance_above_H"]

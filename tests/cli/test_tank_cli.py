@@ -10,6 +10,7 @@ import math
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 
 
@@ -20,7 +21,7 @@ def run(*args):
 def run_json(*args, code=0):
     result = run(*args, "--json")
     assert result.exit_code == code, result.stdout + result.stderr
-    return json.loads(result.stdout)
+    return flat_document(json.loads(result.stdout))
 
 
 def one_line_error(result, code):
@@ -35,7 +36,7 @@ def one_line_error(result, code):
 def test_json_two_of_three():
     """100 µH and 100 pF: ω = 1/√(1e-14) = 1e7 rad/s, so f = 1e7/(2π) Hz and X = √(L/C) = 1000 Ω (by hand)."""
     document = run_json("--inductance", "100uH", "--capacitance", "100pF")
-    assert list(document) == ["command", "inputs", "result", "warnings", "cautions"]
+    assert list(document) == ["schema", "command", "inputs", "result", "warnings", "cautions"]
     assert document["command"] == "tank"
     result = document["result"]
     assert result["mode"] == "lc" and result["solved_for"] == "frequency"

@@ -9,6 +9,7 @@ import sys
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 from coilplan.rewind import closed_core_fit
 
@@ -22,7 +23,7 @@ def run(*args):
 def run_json(*args):
     result = run(*args, "--json")
     assert result.exit_code == 0, result.stdout + result.stderr
-    document = json.loads(result.stdout)
+    document = flat_document(json.loads(result.stdout))
     assert document["command"] == "trim"
     return document
 

@@ -8,6 +8,7 @@ import mpmath
 import pytest
 from click.testing import CliRunner
 
+from coilplan.answer import flat_document
 from coilplan.cli import main
 
 mpmath.mp.dps = 30
@@ -42,8 +43,8 @@ def test_one_wire_json_fields():
     # Sources: ASTM B258 formula (diameter), IEC 60028 (resistivity); docs/methods.md §7.
     result = run("24awg", "--json")
     assert result.exit_code == 0, result.output
-    document = json.loads(result.stdout)
-    assert list(document) == ["command", "inputs", "result", "warnings", "cautions"]
+    document = flat_document(json.loads(result.stdout))
+    assert list(document) == ["schema", "command", "inputs", "result", "warnings", "cautions"]
     assert document["command"] == "wire"
     wire = document["result"]
     assert set(wire) == ONE_WIRE_KEYS
@@ -66,7 +67,7 @@ def test_one_wire_json_temperature_grade_and_density():
     result = run("30awg", "--temperature", "100C", "--grade", "2", "--density", "2.5A/mm2",
                  "--json")
     assert result.exit_code == 0, result.output
-    wire = json.loads(result.stdout)["result"]
+    wire = flat_document(json.loads(result.stdout))["result"]
     d = awg_m(30)
     # Source: IEC 60028 definition, alpha20 = 0.00393/K.
     assert wire["resistance_at_temperature_ohm_per_m"] == pytest.approx(
@@ -80,7 +81,7 @@ def test_one_wire_measured_overall():
     """--overall replaces the grade's estimate by the measured diameter."""
     result = run("24awg", "--overall", "0.56mm", "--json")
     assert result.exit_code == 0, result.output
-    wire = json.loads(result.stdout)["result"]
+    wire = flat_document(json.loads(result.stdout))["result"]
     assert wire["grade"] == "measured"
     assert wire["overall_diameter_m"] == pytest.approx(0.56e-3)
     assert wire["max_overall_diameter_m"] is None
@@ -121,7 +122,7 @@ def test_full_listing_json():
     """With no WIRE and --json, result.wires holds every AWG, SWG and metric row."""
     result = run("--json")
     assert result.exit_code == 0, result.output
-    document = json.loads(result.stdout)
+    document = flat_document(json.loads(result.stdout))
     wires = document["result"]["wires"]
     assert len(wires) == 48 + 57 + 46
     assert all(set(item) == ONE_WIRE_KEYS for item in wires)
@@ -136,7 +137,7 @@ def test_high_density_cautions():
     """A high current density brings a caution about a hot winding."""
     result = run("20awg", "--density", "8", "--json")
     assert result.exit_code == 0, result.output
-    assert any("hot" in text for text in json.loads(result.stdout)["cautions"])
+    assert any("hot" in text for text in flat_document(json.loads(result.stdout))["cautions"])
 
 
 @pytest.mark.parametrize(("args", "option"), [
@@ -168,6 +169,6 @@ def test_hot_temperature_warns_and_cautions():
     """Beyond the linear copper law's range the JSON warns, and a hot winding is cautioned."""
     result = run("24awg", "--temperature", "300C", "--json")
     assert result.exit_code == 0, result.output
-    document = json.loads(result.stdout)
+    document = flat_document(json.loads(result.stdout))
     assert any("IEC 60028" in text for text in document["warnings"])
     assert any("300 °C" in text for text in document["cautions"])
