@@ -131,12 +131,13 @@ def request_from(options: dict) -> Request:
                    temperature=options.get("temperature", 20.0), drive=drive, core=core)
 
 
-def run_form(command: str, form_from, options: dict, render, title: str) -> None:
+def run_form(command: str, form_from, options: dict, title: str) -> None:
     """The whole of a form command: its form (``form_from(options)``), the request, :func:`coilplan.design.design`,
     the plot if asked, and the answer printed (text or JSON).
     """
     from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit
     from coilplan.design import design
+    from coilplan.report.answer_text import answer_lines
 
     with captured_warnings() as warnings_:
         answer = design(form_from(options), request_from(options))
@@ -145,4 +146,4 @@ def run_form(command: str, form_from, options: dict, render, title: str) -> None
                         answer.request.temperature, f"{title}, {result['turns']} turns")
     emit(command=command, as_json=options["as_json"], inputs=context_inputs(), result=result,
          warnings_=list(dict.fromkeys(warnings_ + list(answer.warnings))), cautions=list(answer.cautions),
-         render=render)
+         render=lambda figures: answer_lines(command, figures))

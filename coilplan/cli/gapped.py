@@ -10,7 +10,6 @@ from coilplan.cli._measured import measurement_options, run_form, test_winding_o
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import GappedCore
-from coilplan.report.cored_text import gapped_lines
 from coilplan.saturation import NEAR_SATURATION
 from coilplan.wire import parse_wire
 
@@ -40,7 +39,7 @@ def gapped(**options):
     --target give the gap; --target and --current give the turns and the gap of a choke
     that carries the current without saturating (and fits the window if given).
     """
-    run_form("gapped", form_from, options, gapped_lines, "gapped core")
+    run_form("gapped", form_from, options, "gapped core")
 
 
 def form_from(options: dict):

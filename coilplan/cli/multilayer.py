@@ -8,7 +8,6 @@ from coilplan.cli._common import json_option, plot_option
 from coilplan.cli._measured import coil_options, measurement_options, run_form, test_winding_options, tuning_options
 from coilplan.cli._types import QuantityType
 from coilplan.forms import MULTILAYER_METHODS, MultilayerCoil
-from coilplan.report.coils_text import multilayer_lines
 from coilplan.wire import parse_wire
 
 __all__ = ["multilayer"]
@@ -39,7 +38,7 @@ def multilayer(**options):
     number of turns. The exact method sums every turn as a circle at its own
     radius and axial position; Wheeler's figure is shown beside it.
     """
-    run_form("multilayer", form_from, options, multilayer_lines, "multilayer coil")
+    run_form("multilayer", form_from, options, "multilayer coil")
 
 
 def form_from(options: dict):

@@ -11,7 +11,7 @@ from coilplan.cli._types import QuantityType
 from coilplan.design import design
 from coilplan.errors import InvalidInputError
 from coilplan.forms import ClosedCore
-from coilplan.report.rewind_text import rewind_lines
+from coilplan.report.answer_text import answer_lines
 from coilplan.request import Reading, Request
 from coilplan.wire import parse_wire
 
@@ -52,4 +52,4 @@ def rewind(measured, target, offset, turn_length, wire_text, frequency, meter_fr
               "turns_uncertainty": turns_uncertainty}
     emit(command="rewind", as_json=as_json, inputs={k: v for k, v in inputs.items() if v is not None},
          result=result, warnings_=warnings_ + list(answer.warnings), cautions=list(answer.cautions),
-         render=rewind_lines)
+         render=lambda figures: answer_lines("rewind", figures))

@@ -10,7 +10,6 @@ from coilplan.cli._measured import measurement_options, run_form, test_winding_o
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import RodCoil
-from coilplan.report.cored_text import rod_lines
 from coilplan.wire import parse_wire
 
 __all__ = ["rod"]
@@ -39,7 +38,7 @@ def rod(**options):
     winding and the answer is scaled to it, keeping how L changes as the winding grows.
     Without --mu or --material the reading also gives the rod's permeability.
     """
-    run_form("rod", form_from, options, rod_lines, "coil on a rod")
+    run_form("rod", form_from, options, "coil on a rod")
 
 
 def form_from(options: dict):

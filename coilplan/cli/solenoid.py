@@ -9,7 +9,6 @@ from coilplan.cli._measured import coil_options, measurement_options, run_form, 
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SOLENOID_METHODS, Solenoid
-from coilplan.report.solenoid_text import solenoid_lines
 from coilplan.wire import parse_wire
 
 __all__ = ["one_of", "solenoid"]
@@ -53,7 +52,7 @@ def solenoid(**options):
     number of turns to wind, with the inductance of the whole numbers either side.
     The coil diameter is to the wire centres: former + overall wire diameter.
     """
-    run_form("solenoid", form_from, options, solenoid_lines, "single-layer coil")
+    run_form("solenoid", form_from, options, "single-layer coil")
 
 
 def form_from(options: dict):

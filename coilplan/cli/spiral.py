@@ -9,7 +9,6 @@ from coilplan.cli._measured import coil_options, measurement_options, run_form, 
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SPIRAL_METHODS, FlatSpiral
-from coilplan.report.coils_text import spiral_lines
 from coilplan.wire import parse_wire
 
 __all__ = ["spiral"]
@@ -38,7 +37,7 @@ def spiral(**options):
     number of turns. Give --spacing (the gap between turns), or --outer (the
     space available), or both.
     """
-    run_form("spiral", form_from, options, spiral_lines, "flat spiral")
+    run_form("spiral", form_from, options, "flat spiral")
 
 
 def form_from(options: dict):

@@ -9,7 +9,6 @@ from coilplan.cli._cored import LENGTH, core_options, resolve_core
 from coilplan.cli._measured import measurement_options, run_form, test_winding_options, tuning_options
 from coilplan.cli._types import QuantityType
 from coilplan.forms import Toroid
-from coilplan.report.cored_text import toroid_lines
 from coilplan.wire import parse_wire
 
 __all__ = ["toroid"]
@@ -36,7 +35,7 @@ def toroid(**options):
     test winding, which also tell which generic material classes the core may be.
     --mu 1 is an air-core toroid.
     """
-    run_form("toroid", form_from, options, toroid_lines, "toroid")
+    run_form("toroid", form_from, options, "toroid")
 
 
 def form_from(options: dict):

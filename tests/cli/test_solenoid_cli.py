@@ -95,12 +95,15 @@ def test_methods_agree_within_their_stated_accuracy():
 
 
 def test_text_output_names_the_answer_first():
-    """The text report leads with the turns to wind and shows both whole-number neighbours."""
+    """The text report leads with the turns to wind and shows both whole-number neighbours; the rest follows in
+    sections, in the order a bench user works through them."""
     result = run(*BASE, "--target", "10uH")
     assert result.exit_code == 0
     lines = result.stdout.splitlines()
     assert lines[0] == "Single-layer air-core coil for 10.00 μH"
-    assert lines[2].split()[0] == "wind"
+    assert lines[2] == "To wind" and lines[3].split()[0] == "wind"
+    headings = [line for line in lines if line and not line.startswith(" ")][1:]
+    assert headings == ["To wind", "The winding", "The copper", "Self-resonance", "The model"]
     assert any(line.strip().startswith("whole turns either side") for line in lines)
 
 
