@@ -148,3 +148,43 @@ def test_the_library_names_its_own_fields_and_the_command_line_its_options():
     outcome = CliRunner().invoke(main, ["rod", "--rod-length", "100mm", "--rod-diameter", "10mm", "--wire",
                                         "0.5mm", "--turns", "10"])
     assert outcome.exit_code == 2 and outcome.stderr.startswith("coilplan: error: --mu: expected")
+
+
+KIT_ROD = """
+[settings]
+packing = 0.95
+
+[[coil]]
+name = "loop"
+count = 1
+target = "237uH"
+tolerance = "5%"
+forms = ["rod"]
+
+[[rod]]
+length = "100mm"
+diameter = "8mm"
+material = "nizn-250"
+count = 1
+measured = ["52uH@30"]
+measured_wire = "0.3mm"
+
+[[reel]]
+wire = "0.5mm"
+length = "20m"
+"""
+
+
+def test_the_kit_and_the_rod_command_agree_on_a_rod_calibrated_by_a_test_winding_of_other_wire(tmp_path):
+    """The kit winds by hand at pitch = overall diameter / packing, the test winding too; the rod command told
+    the same pitches (--pitch, --test-pitch) gives the same inductance and calibration to 1e-9."""
+    plan = tmp_path / "plan.toml"
+    plan.write_text(KIT_ROD, encoding="utf-8")
+    placed = run_json("kit", str(plan))["result"]["placements"][0]
+    pitch, test_pitch = WIRE.overall_diameter / 0.95, THIN.overall_diameter / 0.95
+    single = run_json("rod", "--rod-length", "100mm", "--rod-diameter", "8mm", "--material", "nizn-250",
+                      "--wire", "0.5mm", "--pitch", f"{pitch * 1e3!r}mm", "--measured", "52uH@30",
+                      "--test-wire", "0.3mm", "--test-pitch", f"{test_pitch * 1e3!r}mm",
+                      "--turns", str(placed["turns"]))["result"]
+    assert single["inductance_H"] == pytest.approx(placed["inductance_H"], rel=1e-9)
+    assert single["model_factor"] == pytest.approx(placed["calibration_factor"], rel=1e-9)
