@@ -19,12 +19,19 @@ for the winding as it was read.
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from dataclasses import dataclass
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_quantity
+
+if TYPE_CHECKING:
+    from coilplan.request import Reading, Request
+    from coilplan.rewind import Conditions, Fit
 
 __all__ = ["Measured", "ScaledForm", "calibrate", "conditions_of"]
 
@@ -52,13 +59,13 @@ class ScaledForm:
     (2.0, 100.0)
     """
 
-    form: object
+    form: Any
     factor: float
 
-    def inductance(self, turns):
+    def inductance(self, turns: ArrayLike) -> Any:
         return self.factor * np.asarray(self.form.inductance(turns), dtype=float)
 
-    def __getattr__(self, name):
+    def __getattr__(self, name: str) -> Any:
         return getattr(self.form, name)
 
 
@@ -70,15 +77,15 @@ class Measured:
     then there is nothing to add or remove, only a coil to wind.
     """
 
-    readings: list
-    fit: object
-    conditions: object
+    readings: list[tuple[float, int]]
+    fit: Fit
+    conditions: Conditions
     notices: tuple[str, ...] = ()
     same_winding: bool = True
     permeability_fitted: float | None = None
 
 
-def conditions_of(request, self_capacitance_estimate: float | None = None):
+def conditions_of(request: Request, self_capacitance_estimate: float | None = None) -> Conditions:
     """The measurement conditions of a request (:class:`coilplan.rewind.Conditions`)."""
     from coilplan.rewind import Conditions
 
@@ -90,7 +97,7 @@ def conditions_of(request, self_capacitance_estimate: float | None = None):
                       turns_uncertainty=request.turns_uncertainty)
 
 
-def _as_wound(form, reading):
+def _as_wound(form: Any, reading: Reading) -> Any:
     """The form wound as the reading's winding was (its own wire, pitch or length), else the form."""
     if not reading.own_winding:
         return form
@@ -100,7 +107,7 @@ def _as_wound(form, reading):
     return form.with_winding(wire=reading.wire, pitch=reading.pitch, winding_length=reading.winding_length)
 
 
-def _within_reach(form, reading) -> None:
+def _within_reach(form: Any, reading: Reading) -> None:
     """Refuse a reading at more turns than its winding can hold: a miscounted turn count or the wrong form."""
     from coilplan.solve import search_turns
 
@@ -112,17 +119,17 @@ def _within_reach(form, reading) -> None:
             f"{format_quantity(reading.inductance, 'H')}@{reading.turns}")
 
 
-def _fits(form, reading) -> bool:
+def _fits(form: Any, reading: Reading) -> bool:
     from coilplan.solve import search_turns
 
-    return reading.turns <= search_turns(form)[0] + 1e-9
+    return bool(reading.turns <= search_turns(form)[0] + 1e-9)
 
 
-def _fitted_permeability(form, reading, wound) -> float:
+def _fitted_permeability(form: Any, reading: Reading, wound: Callable[[Any], Any]) -> float:
     """The permeability with which the model of ``wound`` reads ``reading`` (ends of 1 to 1e6 if beyond)."""
     from scipy.optimize import brentq
 
-    def excess(log_mu):
+    def excess(log_mu: float) -> float:
         model = wound(form.with_permeability(math.exp(log_mu)))
         return math.log(float(model.inductance(reading.turns)) / reading.inductance)
 
@@ -131,10 +138,10 @@ def _fitted_permeability(form, reading, wound) -> float:
         return math.exp(high)
     if excess(low) >= 0:
         return 1.0
-    return math.exp(brentq(excess, low, high, xtol=1e-10))
+    return math.exp(float(brentq(excess, low, high, xtol=1e-10)))
 
 
-def calibrate(form, request):
+def calibrate(form: Any, request: Request) -> tuple[Any, Measured | None]:
     """(calibrated form, :class:`Measured` or None): the form's level set by the request's readings.
 
     Raises

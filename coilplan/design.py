@@ -27,11 +27,11 @@ from __future__ import annotations
 
 import math
 import warnings
-from collections.abc import Mapping
+from typing import Any
 
 from coilplan.answer import Answer
 from coilplan.apparent import GivenCapacitance
-from coilplan.calibrate import calibrate
+from coilplan.calibrate import Measured, calibrate
 from coilplan.errors import CoilplanWarning, InvalidInputError, MeasurementWarning, OutsideValidityWarning
 from coilplan.quantities import format_quantity
 from coilplan.request import Request
@@ -39,7 +39,7 @@ from coilplan.request import Request
 __all__ = ["Answer", "core_at_operating_frequency", "design"]
 
 
-def design(form, request: Request) -> Answer:
+def design(form: Any, request: Request) -> Answer:
     """The one pipeline: calibrate ``form`` to the request's readings, set its core at the operating
     frequency, solve or check the turns, and gather the figures, warnings and cautions.
 
@@ -89,16 +89,17 @@ def design(form, request: Request) -> Answer:
     return Answer(solved, result, tuple(texts), tuple(_cautions(result, request, measured)), measured, request)
 
 
-def _settle(form, request: Request):
+def _settle(form: Any, request: Request) -> tuple[Any, Request, dict[str, Any]]:
     """(form, request, fields): the form's free part set from the request, where it has one."""
     if hasattr(form, "settle"):
-        return form.settle(request)
+        settled: tuple[Any, Request, dict[str, Any]] = form.settle(request)
+        return settled
     if request.turns is not None and request.target is not None:
         raise InvalidInputError("target", "either turns or a target, not both", None)
     return form, request, {}
 
 
-def _unused_frequency(form, request: Request) -> None:
+def _unused_frequency(form: Any, request: Request) -> None:
     """Say once why an operating frequency changes nothing: a form with no self-capacitance to work with."""
     if request.operating_frequency is None or request.self_capacitance is not None or hasattr(form, "self_capacitance"):
         return
@@ -108,7 +109,7 @@ def _unused_frequency(form, request: Request) -> None:
                   MeasurementWarning, stacklevel=2)
 
 
-def _cautions(result: Mapping, request: Request, measured) -> list[str]:
+def _cautions(result: dict[str, Any], request: Request, measured: Measured | None) -> list[str]:
     """The safety cautions this coil calls for, each where it applies."""
     from coilplan.cautions import tuned_circuit_cautions
     from coilplan.results.cored import cored_cautions
@@ -121,7 +122,7 @@ def _cautions(result: Mapping, request: Request, measured) -> list[str]:
     return cautions + tuned_circuit_cautions(request.tuning is not None)
 
 
-def core_at_operating_frequency(form, request: Request, measured):
+def core_at_operating_frequency(form: Any, request: Request, measured: Measured | None) -> Any:
     """``form`` with its core's µ' and loss at the operating frequency, when the core's material is known.
 
     The material is known from its class (``core.material``: the class's dispersion), a loss factor a
@@ -165,7 +166,7 @@ def core_at_operating_frequency(form, request: Request, measured):
     return at_frequency(form, spectrum, frequency)
 
 
-def _core_permeability(form) -> float | None:
+def _core_permeability(form: Any) -> float | None:
     """The core's relative permeability as the form uses it (a ring's, a gap's material, a rod's µi)."""
     for name in ("permeability", "mu_r", "mu_initial"):
         value = getattr(form, name, None)
@@ -175,10 +176,12 @@ def _core_permeability(form) -> float | None:
     return None
 
 
-def _loss_factor_from_q(form, mu: float, reference: float, dispersion, request: Request):
+def _loss_factor_from_q(form: Any, mu: float, reference: float, dispersion: Any,
+                        request: Request) -> tuple[float, float] | None:
     """(tanδ/µi, f) from the Q read on the last reading's winding; None (with a warning) when it tells nothing."""
     from coilplan.core_frequency import CoreSpectrum, at_frequency, loss_factor_from_q
 
+    assert request.core.measured_q is not None  # the caller's condition
     q_value, q_frequency = request.core.measured_q
     turns = int(request.readings[-1].turns)
     probe = at_frequency(form, CoreSpectrum(mu=mu, reference_frequency=reference, dispersion=dispersion,

@@ -18,6 +18,7 @@ from __future__ import annotations
 import math
 import operator
 from dataclasses import dataclass, field
+from typing import Any
 
 from coilplan.errors import InvalidInputError
 from coilplan.wire import Wire
@@ -29,7 +30,7 @@ __all__ = ["DEFAULT_TOLERANCE", "CoreFacts", "Drive", "Reading", "Request"]
 DEFAULT_TOLERANCE = 0.01
 
 
-def _whole(value, name: str, what: str) -> int | None:
+def _whole(value: Any, name: str, what: str) -> int | None:
     """A whole number (a numpy integer too) of at least one, or None."""
     if value is None:
         return None
@@ -42,7 +43,7 @@ def _whole(value, name: str, what: str) -> int | None:
     return count
 
 
-def _finite_positive(value, name: str, what: str) -> None:
+def _finite_positive(value: Any, name: str, what: str) -> None:
     if value is not None and not (isinstance(value, (int, float)) and math.isfinite(value) and value > 0):
         raise InvalidInputError(name, what, value)
 
@@ -213,7 +214,7 @@ class Request:
         if self.tuning is not None:
             from coilplan.physics.resonance import resonant_inductance
 
-            return float(resonant_inductance(*self.tuning))
+            return float(resonant_inductance(*self.tuning))  # type: ignore[no-untyped-call]
         return self.target
 
     @property

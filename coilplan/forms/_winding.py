@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import dataclasses
-from typing import ClassVar
+from typing import Any, ClassVar
 
 from coilplan.errors import InvalidInputError
 
@@ -20,7 +20,10 @@ class Rewindable:
     _pitch_field: ClassVar[str | None] = None
     _length_field: ClassVar[str | None] = None
 
-    def with_winding(self, *, wire=None, pitch: float | None = None, winding_length: float | None = None):
+    wire: Any
+
+    def with_winding(self, *, wire: Any = None, pitch: float | None = None,
+                     winding_length: float | None = None) -> Any:
         """This form wound with ``wire`` (default its own) at ``pitch`` or over ``winding_length``."""
         changes = {"wire": self.wire if wire is None else wire}
         for field_name, value, what in ((self._pitch_field, pitch, "pitch"),
@@ -30,7 +33,7 @@ class Rewindable:
             elif value is not None:
                 raise InvalidInputError("readings", f"a test winding without a {what}: this form sets it itself",
                                         None)
-        return dataclasses.replace(self, **changes)
+        return dataclasses.replace(self, **changes)  # type: ignore[type-var]
 
 
 class CoreLaw:
@@ -38,9 +41,11 @@ class CoreLaw:
 
     calibration: ClassVar[str] = "al"
 
-    def with_al(self, al: float, offset: float = 0.0):
+    al: float | None
+
+    def with_al(self, al: float, offset: float = 0.0) -> Any:
         """This form with the AL value the readings gave (a lead offset is the bare core law's alone)."""
-        return dataclasses.replace(self, al=al)
+        return dataclasses.replace(self, al=al)  # type: ignore[type-var]
 
     @property
     def permeability_unknown(self) -> bool:

@@ -6,6 +6,9 @@ A result is a plain dict with SI values and the unit in the key
 command line, the trim log, the kit and scripts get the same answer.
 """
 
+from collections.abc import Callable
+from typing import Any
+
 from coilplan.results.closed import closed_result
 from coilplan.results.coils import multilayer_result, spiral_result
 from coilplan.results.cored import gapped_result, rod_result, toroid_result
@@ -15,7 +18,7 @@ __all__ = ["closed_result", "figures_of", "gapped_result", "multilayer_result", 
            "spiral_result", "toroid_result"]
 
 
-def figures_of(form):
+def figures_of(form: Any) -> Callable[..., dict[str, Any]]:
     """The figures builder for ``form`` (unwrapped to the form it was built as)."""
     from coilplan.forms import ClosedCore, FlatSpiral, GappedCore, MultilayerCoil, RodCoil, Solenoid, Toroid
 
