@@ -1,10 +1,11 @@
 """coilplan: plan coil windings for inductors made from salvaged and surplus parts.
 
 The library computes each coil form's inductance from published methods
-(``coilplan.physics``), wraps the geometry and wire in a form object
-(``coilplan.forms``), solves the inverse problem, turns for a target
-(``coilplan.solve``), and calibrates any form to readings of the coil in hand
-(``coilplan.rewind``). The ``coilplan`` command is a thin layer over these.
+(``coilplan.physics``) and wraps the geometry and wire in a form object
+(``coilplan.forms``). One call, :func:`design`, takes a form and a :class:`Request`
+(a target or turns, the operating frequency, readings of the coil in hand) and gives
+the :class:`Answer`: calibration, the core at frequency, the turns and every figure.
+The ``coilplan`` command, the trim log and the kit are thin layers over it.
 
 The public names below are imported on first use, so the command line starts
 without loading the parts a command does not need.
@@ -16,13 +17,16 @@ __version__ = "0.1.0"
 
 # public name -> the module that defines it
 _WHERE = {
+    "Answer": "coilplan.answer",
     "ClosedCore": "coilplan.forms",
     "ClosedCoreAnswer": "coilplan.rewind",
     "CoilForm": "coilplan.forms",
     "CoilplanError": "coilplan.errors",
     "CoilplanWarning": "coilplan.errors",
     "Conditions": "coilplan.rewind",
+    "CoreFacts": "coilplan.request",
     "DataFileError": "coilplan.errors",
+    "Drive": "coilplan.request",
     "Fit": "coilplan.rewind",
     "FlatSpiral": "coilplan.forms",
     "GappedCore": "coilplan.forms",
@@ -35,6 +39,8 @@ _WHERE = {
     "MultilayerCoil": "coilplan.forms",
     "OutsideValidityWarning": "coilplan.errors",
     "PlanFileError": "coilplan.kit",
+    "Reading": "coilplan.request",
+    "Request": "coilplan.request",
     "RodCoil": "coilplan.forms",
     "SOLENOID_METHODS": "coilplan.forms",
     "SPIRAL_METHODS": "coilplan.forms",
@@ -52,7 +58,9 @@ _WHERE = {
     "closed_core_fit": "coilplan.rewind",
     "copper_resistivity": "coilplan.wire",
     "count_turns": "coilplan.turn_count",
+    "design": "coilplan.pipeline",
     "design_choke": "coilplan.choke",
+    "flat_document": "coilplan.answer",
     "format_length": "coilplan.quantities",
     "format_quantity": "coilplan.quantities",
     "gapped_result": "coilplan.results",

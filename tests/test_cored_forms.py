@@ -53,7 +53,7 @@ def test_toroid_al_from_permeability_is_iec_60205():
 
 def test_toroid_needs_a_core_and_a_hole_the_wire_passes():
     """No permeability, no AL and no reading, or a wire too thick for the hole, is refused naming the field."""
-    from coilplan.design import design
+    from coilplan.pipeline import design
     from coilplan.request import Request
 
     with pytest.raises(InvalidInputError, match="mu"):

@@ -1,4 +1,4 @@
-"""The one pipeline (coilplan.design): every form command is design(form, request), and the cases a bench
+"""The one pipeline (coilplan.pipeline): every form command is design(form, request), and the cases a bench
 user meets (a test winding of another wire, a rod of unknown material, an old winding of another wire on a
 closed core, a rewind at frequency) come out as the physics says."""
 
@@ -10,9 +10,9 @@ from click.testing import CliRunner
 
 from coilplan.answer import flat, flat_document
 from coilplan.cli import main
-from coilplan.design import design
 from coilplan.errors import InvalidInputError
 from coilplan.forms import FlatSpiral, GappedCore, MultilayerCoil, RodCoil, Solenoid, Toroid
+from coilplan.pipeline import design
 from coilplan.request import CoreFacts, Drive, Reading, Request
 from coilplan.wire import parse_wire
 

@@ -61,6 +61,19 @@ def _tour_folder(tmp_path):
     return _FOLDER[0]
 
 
+def test_readme_python_examples_run_as_shown():
+    """The ```python blocks of the README are doctests: each line's output is what the library prints."""
+    import doctest
+
+    blocks = re.findall(r"```python\n(.*?)```", README, flags=re.S)
+    assert blocks, "the README has a From Python section"
+    for number, block in enumerate(blocks):
+        test = doctest.DocTestParser().get_doctest(block, {}, f"README python block {number + 1}", "README.md", 0)
+        runner = doctest.DocTestRunner(optionflags=doctest.NORMALIZE_WHITESPACE)
+        runner.run(test)
+        assert runner.failures == 0, f"README python block {number + 1} fails: see the output above"
+
+
 def test_readme_has_a_tour():
     """The tour is there (guards against a README edit that drops every block)."""
     assert len(tour_blocks()) >= 4

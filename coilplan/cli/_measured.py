@@ -132,11 +132,11 @@ def request_from(options: dict) -> Request:
 
 
 def run_form(command: str, form_from, options: dict, title: str) -> None:
-    """The whole of a form command: its form (``form_from(options)``), the request, :func:`coilplan.design.design`,
+    """The whole of a form command: its form (``form_from(options)``), the request, :func:`coilplan.pipeline.design`,
     the plot if asked, and the answer printed (text or JSON).
     """
     from coilplan.cli._common import captured_warnings, context_inputs, draw_impedance_plot, emit
-    from coilplan.design import design
+    from coilplan.pipeline import design
     from coilplan.report.answer_text import answer_lines
 
     with captured_warnings() as warnings_:

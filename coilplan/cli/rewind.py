@@ -8,9 +8,9 @@ from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import measurement_type
 from coilplan.cli._measured import measurement_options
 from coilplan.cli._types import QuantityType
-from coilplan.design import design
 from coilplan.errors import InvalidInputError
 from coilplan.forms import ClosedCore
+from coilplan.pipeline import design
 from coilplan.report.answer_text import answer_lines
 from coilplan.request import Reading, Request
 from coilplan.wire import parse_wire

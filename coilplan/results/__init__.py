@@ -2,7 +2,7 @@
 
 A result is a plain dict with SI values and the unit in the key
 (``inductance_H``, ``length_m``), ready for ``--json`` and for the text report.
-:func:`coilplan.design.design` builds it through :func:`figures_of`, so the
+:func:`coilplan.pipeline.design` builds it through :func:`figures_of`, so the
 command line, the trim log, the kit and scripts get the same answer.
 """
 
