@@ -150,7 +150,8 @@ def calibrate(form, request):
     readings = request.readings
     if not readings:
         if getattr(form, "permeability_unknown", False):
-            raise InvalidInputError("mu", "the core's permeability, a material class, or a reading", None)
+            raise InvalidInputError(getattr(form, "permeability_field", "mu_r"),
+                                    "the core's permeability, a material class, or a reading", None)
         return form, None
     law = getattr(form, "calibration", "scale") == "al"
     permeability = None

@@ -37,6 +37,8 @@ class CoreLaw:
     """A closed-core form, L = AL·N²: readings set its AL value (:mod:`coilplan.calibrate`)."""
 
     calibration: ClassVar[str] = "al"
+    #: the field that stays unknown until readings set it (named when there are none)
+    permeability_field: ClassVar[str] = "mu_r"
 
     def with_al(self, al: float, offset: float = 0.0):
         """This form with the AL value the readings gave (a lead offset is the bare core law's alone)."""
