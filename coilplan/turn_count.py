@@ -110,9 +110,9 @@ def _henry(value: float) -> str:
     return format_quantity(value, "H", 4)
 
 
-def _meter_note(tolerance: float, option: str = "--tolerance") -> str:
+def _meter_note(tolerance: float) -> str:
     return (f"each inductance reading within ±{_percent(tolerance)}: an assumed figure for a bench LCR meter; "
-            f"replace it with your meter's stated accuracy ({option})")
+            "replace it with your meter's stated accuracy (--tolerance)")
 
 
 def _check_tolerance(value: float, option: str) -> float:
