@@ -157,7 +157,8 @@ def calibrate(form: Any, request: Request) -> tuple[Any, Measured | None]:
     readings = request.readings
     if not readings:
         if getattr(form, "permeability_unknown", False):
-            raise InvalidInputError("mu", "the core's permeability, a material class, or a reading", None)
+            raise InvalidInputError(getattr(form, "permeability_field", "mu_r"),
+                                    "the core's permeability, a material class, or a reading", None)
         return form, None
     law = getattr(form, "calibration", "scale") == "al"
     permeability = None

@@ -61,6 +61,6 @@ def design_choke(core: GappedCore, target: float, peak_current: float,
             f"{format_quantity(target, 'H')} at {format_quantity(peak_current, 'A')} needs at least "
             f"{turns} turns to stay below {format_quantity(max_flux_density, 'T')}, but "
             f"{core.limit_reason(core.max_turns())}: use a larger core or thinner wire",
-            option="--current")
+            option="peak_current")
     gap = core.gap_for_al(target / turns**2)
     return dataclasses.replace(core, gap=gap, al=None), turns

@@ -33,7 +33,8 @@ class InvalidInputError(CoilplanError, ValueError):
     Parameters
     ----------
     option : str
-        The option or field the value came from, e.g. ``"--target"``.
+        The field or parameter the value belongs to, e.g. ``"target"``, ``"inner_diameter"``
+        (the command line shows the option that set it; the kit, the plan-file key).
     expected : str
         What would have been accepted, e.g. ``"an inductance such as 10uH"``.
     got : object, optional
@@ -64,7 +65,7 @@ class InfeasibleError(CoilplanError, ValueError):
     message : str
         The whole sentence, in the user's terms.
     option : str, optional
-        The option whose value made the request infeasible.
+        The field whose value made the request infeasible, e.g. ``"target"``.
     achievable : tuple of float, optional
         The (lowest, highest) value that can be reached, in SI units.
     """

@@ -314,7 +314,7 @@ def all_materials() -> list[Material]:
     return list(_materials().values())
 
 
-def material(name: str, option: str = "--material") -> Material:
+def material(name: str, option: str = "material") -> Material:
     """The material class called ``name`` (case-blind; ``_`` and spaces read as ``-``).
 
     Raises
@@ -330,7 +330,7 @@ def material(name: str, option: str = "--material") -> Material:
     >>> material("nizn-152")  # doctest: +ELLIPSIS
     Traceback (most recent call last):
     ...
-    coilplan.errors.InvalidInputError: --material: expected a material class ... (did you mean nizn-125?)...
+    coilplan.errors.InvalidInputError: material: expected a material class ... (did you mean nizn-125?)...
     """
     table = _materials()
     key = _key(name)
@@ -359,7 +359,7 @@ def find_materials(text: str) -> list[Material]:
 
 
 def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
-                               option: str = "--mu") -> list[PermeabilityMatch]:
+                               option: str = "mu_r") -> list[PermeabilityMatch]:
     """The material classes consistent with a measured relative permeability, best first.
 
     A class fits when ``mu_r`` lies within its permeability range widened by the
@@ -391,7 +391,7 @@ def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
         How far beyond a class's range a measurement may lie, as a fraction
         (0.25: a factor 1.25), for meter error and the spread of the core.
     option : str
-        The option named in an error.
+        The field named in an error (the caller's name for ``mu_r``).
 
     Returns
     -------
@@ -402,7 +402,7 @@ def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
     ------
     InvalidInputError
         ``mu_r`` not a finite number above zero (``option``), or ``tolerance`` not a
-        finite number of at least zero (``--tolerance``).
+        finite number of at least zero (``tolerance``).
 
     Examples
     --------
@@ -423,7 +423,7 @@ def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
     except (TypeError, ValueError):
         spread = math.nan
     if not (math.isfinite(spread) and spread >= 0):
-        raise InvalidInputError("--tolerance", "a fraction of at least 0, such as 0.25", tolerance)
+        raise InvalidInputError("tolerance", "a fraction of at least 0, such as 0.25", tolerance)
     widen = 1.0 + spread
     matches = []
     for core in _materials().values():
@@ -553,7 +553,7 @@ def _dispersions() -> dict[str, Dispersion]:
     return table
 
 
-def material_dispersion(name: str, option: str = "--material") -> Dispersion | None:
+def material_dispersion(name: str, option: str = "material") -> Dispersion | None:
     """The frequency dispersion of the material class ``name``; None for air (no core, no core loss).
 
     Raises

@@ -209,7 +209,7 @@ def parse_quantity(text: str, unit: str, option: str = "value", *,
     unit : str
         The expected unit: one of ``H F Hz m m2 ohm A V T H/t2``.
     option : str
-        The option name, for the error message.
+        The field the value is for, named in the error message.
     allow_zero, allow_negative : bool
         Whether zero or negative values are accepted (default: only > 0). Where zero is
         accepted it may be typed without a unit (``"0"``): zero is zero in any unit.
@@ -270,7 +270,7 @@ def parse_count(text: str, option: str = "value", *, minimum: int = 1) -> int:
 
     Examples
     --------
-    >>> parse_count("40", "--turns")
+    >>> parse_count("40", "turns")
     40
     """
     stripped = str(text).strip()
@@ -291,7 +291,7 @@ def parse_pair(text: str, first, second, option: str, expected: str):
     Examples
     --------
     >>> parse_pair("100pF@1.2MHz", lambda t, o: parse_quantity(t, "F", o),
-    ...            lambda t, o: parse_quantity(t, "Hz", o), "--resonance", "C@f")
+    ...            lambda t, o: parse_quantity(t, "Hz", o), "resonance", "C@f")
     (1e-10, 1200000.0)
     """
     parts = str(text).split("@")
@@ -303,7 +303,7 @@ def parse_pair(text: str, first, second, option: str, expected: str):
         raise InvalidInputError(option, f"{expected} ({error.expected})", text) from None
 
 
-def parse_measurement(text: str, option: str = "--measured") -> tuple[float, int]:
+def parse_measurement(text: str, option: str = "readings") -> tuple[float, int]:
     """Read a measured point ``L@N``: an inductance read on the meter at a whole number of turns.
 
     Returns
@@ -321,7 +321,7 @@ def parse_measurement(text: str, option: str = "--measured") -> tuple[float, int
                       "a measurement inductance@turns such as 120uH@36")
 
 
-def parse_loss_factor(text: str, option: str = "--loss-factor") -> tuple[float, float]:
+def parse_loss_factor(text: str, option: str = "loss_factor") -> tuple[float, float]:
     """Read a relative loss factor and its frequency, ``tanδ/µi@f``: ``40e-6@1MHz`` or ``40ppm@1MHz``.
 
     Returns
@@ -338,7 +338,7 @@ def parse_loss_factor(text: str, option: str = "--loss-factor") -> tuple[float, 
                       "a relative loss factor tanδ/µi@frequency such as 40e-6@1MHz or 40ppm@1MHz")
 
 
-def parse_q_reading(text: str, option: str = "--measured-q") -> tuple[float, float]:
+def parse_q_reading(text: str, option: str = "measured_q") -> tuple[float, float]:
     """Read a Q the meter showed and its test frequency, ``Q@f``: ``85@100kHz``.
 
     Examples
@@ -379,7 +379,7 @@ _RELATIVE_EXPECTED = "a relative tolerance such as 1%, 0.5 % or 10000ppm"
 _MAX_RELATIVE = 0.5
 
 
-def parse_relative(text: str, option: str = "--tolerance") -> float:
+def parse_relative(text: str, option: str = "tolerance") -> float:
     """Read a relative tolerance in percent or ppm, returned as a fraction.
 
     Raises
@@ -407,7 +407,7 @@ def parse_relative(text: str, option: str = "--tolerance") -> float:
     return value
 
 
-def parse_temperature(text: str, option: str = "--temperature") -> float:
+def parse_temperature(text: str, option: str = "temperature") -> float:
     """Read a temperature in degrees Celsius (``60C``, ``60°C``, ``60degC``; ``333K``).
 
     Returns

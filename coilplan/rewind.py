@@ -156,7 +156,7 @@ def low_frequency_readings(readings, conditions: Conditions) -> list[tuple[float
     ------
     InvalidInputError
         A reading whose corrected L puts the meter frequency above
-        :data:`UNUSABLE_SRF_FRACTION` of the coil's self-resonance (``--meter-freq``).
+        :data:`UNUSABLE_SRF_FRACTION` of the coil's self-resonance (``meter_frequency``).
     """
     if conditions.self_capacitance is None or conditions.meter_frequency is None:
         return [(float(value), int(turns)) for value, turns in readings]
@@ -179,10 +179,10 @@ def check_readings(readings) -> None:
     """Refuse readings that cannot be used: none, repeated turn counts, or more turns reading less."""
     points = list(readings)
     if not points:
-        raise InvalidInputError("--measured", "at least one reading inductance@turns", None)
+        raise InvalidInputError("readings", "at least one reading inductance@turns", None)
     counts = [turns for _, turns in points]
     if len(set(counts)) != len(counts):
-        raise InvalidInputError("--measured", "one reading per turn count (average repeated readings first)",
+        raise InvalidInputError("readings", "one reading per turn count (average repeated readings first)",
                                 ", ".join(str(n) for n in counts))
 
 
@@ -262,7 +262,7 @@ def rewind_fields(form, target: float, readings, fit: Fit, conditions: Condition
     turns_now = int(list(readings)[-1][1])
     fewest = min(int(count) for _, count in readings)
     if conditions.turns_uncertainty >= fewest:
-        raise InvalidInputError("--turns-uncertainty", f"an uncertainty below the fewest turns read ({fewest}): "
+        raise InvalidInputError("turns_uncertainty", f"an uncertainty below the fewest turns read ({fewest}): "
                                 "a count known only to ± its own size could be no turns at all",
                                 f"{conditions.turns_uncertainty:g}")
     low_target = _target_at_low_frequency(target, conditions)
@@ -356,7 +356,7 @@ def _check_apparent(solution, target: float, conditions: Conditions) -> None:
     raise InfeasibleError(f"no whole number of turns shows {format_quantity(target, 'H')} at "
                           f"{format_quantity(conditions.operating_frequency, 'Hz')}: it lies in the self-resonance "
                           f"rise, where {' and '.join(dict.fromkeys(sides))}; use a lower frequency or a coil "
-                          f"with less self-capacitance", option="--target")
+                          f"with less self-capacitance", option="target")
 
 
 def _apparent(inductance: float, conditions: Conditions) -> float:
@@ -464,14 +464,14 @@ def closed_core_fit(readings, *, offset: bool = False) -> Fit:
     inductance = np.array([value for value, _ in readings], dtype=float)
     turns = np.array([count for _, count in readings], dtype=float)
     if offset and inductance.size < 2:
-        raise InvalidInputError("--offset", "two readings or more to separate the leads from the winding", None)
+        raise InvalidInputError("offset", "two readings or more to separate the leads from the winding", None)
     columns = [turns**2 / inductance] + ([1.0 / inductance] if offset else [])
     solution, *_ = np.linalg.lstsq(np.column_stack(columns), np.ones_like(inductance), rcond=None)
     al = float(solution[0])
     lead = float(solution[1]) if offset else 0.0
     if al <= 0:
         raise InfeasibleError("the readings give no positive AL value: more turns must read more inductance",
-                              option="--measured")
+                              option="readings")
     residuals = (inductance - al * turns**2 - lead) / inductance
     return Fit("al", al, tuple(float(r) for r in residuals), _scatter(residuals, 1 + offset),
                {"offset_H": lead} if offset else {})

@@ -116,14 +116,14 @@ def _check_bracket(form, targets: np.ndarray, low: float, high: float,
         raise InfeasibleError(
             f"target {format_quantity(target, 'H')} is below the {format_quantity(smallest, 'H')} "
             f"of {form.limit_reason(low, lowest=True)}",
-            option="--target", achievable=(smallest, largest))
+            option="target", achievable=(smallest, largest))
     if np.any(targets > largest * (1 + slack)):
         target = float(np.max(targets))
         reason = form.limit_reason(high) if reason is None else reason
         raise InfeasibleError(
             f"target {format_quantity(target, 'H')} is above the {format_quantity(largest, 'H')} "
             f"this coil can reach: {reason}",
-            option="--target", achievable=(smallest, largest))
+            option="target", achievable=(smallest, largest))
 
 
 def _refuse_beyond_any_coil(form, targets: np.ndarray) -> None:
@@ -135,9 +135,9 @@ def _refuse_beyond_any_coil(form, targets: np.ndarray) -> None:
     if np.any(targets <= 0):
         raise InfeasibleError(f"target {format_quantity(float(np.min(targets)), 'H')} is not above zero: even "
                               f"{form.limit_reason(float(form.min_turns()), lowest=True)} has more",
-                              option="--target")
+                              option="target")
     if np.any(np.isinf(targets)):
-        raise InfeasibleError("an infinite target inductance is above what any winding reaches", option="--target")
+        raise InfeasibleError("an infinite target inductance is above what any winding reaches", option="target")
 
 
 def solve_turns(form, target, *, rtol: float = 1e-12, max_iterations: int = 100) -> TurnsSolution:
@@ -185,7 +185,7 @@ def solve_turns(form, target, *, rtol: float = 1e-12, max_iterations: int = 100)
     high_turns, reason = _upper_bracket(form, log_target, low_turns)
     if high_turns < low_turns:
         raise InfeasibleError(f"not even {form.limit_reason(low_turns, lowest=True)} fits: "
-                              f"{form.limit_reason(high_turns)}", option="--target")
+                              f"{form.limit_reason(high_turns)}", option="target")
     log_low, log_high = _log_inductance(form, np.array([low_turns, high_turns]))
     evaluations = 1
     _check_bracket(form, targets, low_turns, high_turns, math.exp(log_low), math.exp(log_high), reason)

@@ -101,7 +101,7 @@ def parse_range(text: str, unit: str, option: str) -> tuple[float, float]:
     unit : str
         The unit both ends must be in (``"Hz"``, ``"F"``).
     option : str
-        The option name, for the message.
+        The field the range is for, named in the message.
 
     Returns
     -------
@@ -115,9 +115,9 @@ def parse_range(text: str, unit: str, option: str) -> tuple[float, float]:
 
     Examples
     --------
-    >>> parse_range("530kHz:1700kHz", "Hz", "--band")
+    >>> parse_range("530kHz:1700kHz", "Hz", "band")
     (530000.0, 1700000.0)
-    >>> parse_range("365pF:10pF", "F", "--capacitor")
+    >>> parse_range("365pF:10pF", "F", "capacitor")
     (1e-11, 3.65e-10)
     """
     example = _RANGE_EXAMPLES.get(unit, f"1{unit}:2{unit}")
@@ -134,8 +134,9 @@ def parse_range(text: str, unit: str, option: str) -> tuple[float, float]:
     return ends[0], ends[1]
 
 
-def parse_resonance(text: str, option: str = "--resonance") -> tuple[float, float]:
-    """Read a resonance ``C@f``: a known capacitor and the frequency at which the coil resonated with it.
+def parse_resonance(text: str, option: str = "points") -> tuple[float, float]:
+    """Read a resonance ``C@f``: a known capacitor and the frequency at which the coil resonated with it
+    (one of the ``points`` of :func:`fit_resonances`).
 
     Returns
     -------
@@ -224,17 +225,17 @@ def solve_tank(*, inductance: float | None = None, capacitance: float | None = N
     >>> round(tank.frequency / 1e3, 2), tank.solved_for
     (537.73, 'frequency')
     """
-    given = {"--inductance": inductance, "--capacitance": capacitance, "--frequency": frequency}
+    given = {"inductance": inductance, "capacitance": capacitance, "frequency": frequency}
     present = [name for name, value in given.items() if value is not None]
     if len(present) == 3:
-        raise InvalidInputError("--frequency", "two of --inductance, --capacitance, --frequency, not all three "
+        raise InvalidInputError("frequency", "two of the inductance, capacitance and frequency, not all three "
                                 "(the third is computed from the other two)")
     if len(present) < 2:
         missing = [name for name in given if name not in present]
-        with_what = f" with {present[0]}" if present else ""
-        raise InvalidInputError(" or ".join(missing), f"one more of them{with_what} (any two of --inductance, "
-                                "--capacitance, --frequency give the third)")
-    units = {"--inductance": "H", "--capacitance": "F", "--frequency": "Hz"}
+        with_what = f" with the {present[0]}" if present else ""
+        raise InvalidInputError(" or ".join(missing), f"one more of them{with_what} (any two of the inductance, "
+                                "capacitance and frequency give the third)")
+    units = {"inductance": "H", "capacitance": "F", "frequency": "Hz"}
     for name in present:
         _positive(given[name], name, units[name])
     if frequency is None:
@@ -432,11 +433,11 @@ def plan_band(*, capacitor: tuple[float, float], band: tuple[float, float] | Non
     """
     c_min, c_max = (float(value) for value in capacitor)
     if not (math.isfinite(c_min) and math.isfinite(c_max) and 0 < c_min < c_max):
-        raise InvalidInputError("--capacitor", "a variable capacitor's travel min:max with 0 < min < max",
+        raise InvalidInputError("capacitor", "a variable capacitor's travel min:max with 0 < min < max",
                                 f"{c_min:.6g}:{c_max:.6g}")
     if band is None and inductance is None:
-        raise InvalidInputError("--capacitor", "--band (to plan the coil) or --inductance (for the band it covers) "
-                                "with it")
+        raise InvalidInputError("capacitor", "a band to plan the coil for, or an inductance for the band it "
+                                "covers, with it")
     assumptions = []
     stray_assumed = stray is None
     if stray is None:
@@ -444,9 +445,9 @@ def plan_band(*, capacitor: tuple[float, float], band: tuple[float, float] | Non
         assumptions.append(f"stray across the coil {_f(stray, 'F')}: an assumed typical figure for wiring, a valve's "
                            "or transistor's input and the coil's self-capacitance (give --stray; a coil's own can be "
                            "measured with --resonance)")
-    stray = _positive(stray, "--stray", "F", allow_zero=True)
+    stray = _positive(stray, "stray", "F", allow_zero=True)
     if padder is not None:
-        padder = _positive(padder, "--padder", "F")
+        padder = _positive(padder, "padder", "F")
         assumptions.append("the padder is in series with the variable capacitor, and the stray across the coil")
     total_min, total_max = _travel((c_min, c_max), padder, stray)
     available = total_max / total_min
@@ -455,13 +456,13 @@ def plan_band(*, capacitor: tuple[float, float], band: tuple[float, float] | Non
     if band is not None:
         low, high = (float(value) for value in band)
         if not (math.isfinite(low) and math.isfinite(high) and 0 < low < high):
-            raise InvalidInputError("--band", "a band low:high with 0 < low < high", f"{low:.6g}:{high:.6g}")
+            raise InvalidInputError("band", "a band low:high with 0 < low < high", f"{low:.6g}:{high:.6g}")
         ratio = float(rs.band_capacitance_ratio(low, high))
         effective = _travel((c_min, c_max), padder, 0.0)
         fields["required_ratio"] = ratio
         fields["max_stray"] = float(rs.max_stray_capacitance(*effective, ratio))
         fields["inductance_for_band"] = float(rs.resonant_inductance(low, total_max))
-    inductance = _positive(inductance, "--inductance", "H") if inductance_given else fields["inductance_for_band"]
+    inductance = _positive(inductance, "inductance", "H") if inductance_given else fields["inductance_for_band"]
     covered = (float(rs.resonant_frequency(inductance, total_max)), float(rs.resonant_frequency(inductance, total_min)))
     advice: list[str] = []
     if band is not None:
@@ -608,7 +609,7 @@ def fit_resonances(points: Sequence[tuple[float, float]], tolerance: float | Non
     """
     points = [tuple(point) for point in points]
     if len(points) < 2:
-        raise InvalidInputError("--resonance", _ONE_POINT)
+        raise InvalidInputError("points", _ONE_POINT)
     assumptions = []
     if tolerance is None:
         tolerance = DEFAULT_FREQUENCY_TOLERANCE
@@ -616,15 +617,15 @@ def fit_resonances(points: Sequence[tuple[float, float]], tolerance: float | Non
                            "signal generator and read on a counter; give --tolerance (a dip meter's dial is worse)")
     tolerance = float(tolerance)
     if not 0 < tolerance < 0.5:
-        raise InvalidInputError("--tolerance", "a relative tolerance above 0 % and below 50 %", f"{tolerance:.6g}")
+        raise InvalidInputError("tolerance", "a relative tolerance above 0 % and below 50 %", f"{tolerance:.6g}")
     capacitance = np.array([point[0] for point in points], dtype=float)
     frequency = np.array([point[1] for point in points], dtype=float)
     for c, f in points:
         if not (math.isfinite(c) and math.isfinite(f) and c > 0 and f > 0):
-            raise InvalidInputError("--resonance", "a known capacitor above zero and a frequency above zero",
+            raise InvalidInputError("points", "a known capacitor above zero and a frequency above zero",
                                     f"{c:.6g}F@{f:.6g}Hz")
     if np.ptp(capacitance) <= 1e-9 * capacitance.max():
-        raise InvalidInputError("--resonance", "resonances with at least two different capacitors (one capacitor "
+        raise InvalidInputError("points", "resonances with at least two different capacitors (one capacitor "
                                 "gives only L·(C + C0))")
     y = 1.0 / (2.0 * np.pi * frequency) ** 2
     sigma = 2.0 * tolerance * y
@@ -636,7 +637,7 @@ def fit_resonances(points: Sequence[tuple[float, float]], tolerance: float | Non
     intercept_s, slope_s = covariance @ (design.T @ (ys / ss))
     L = slope_s * y_scale / x_scale
     if not L > 0:
-        raise InvalidInputError("--resonance", "readings whose frequency falls as the capacitance rises (these give "
+        raise InvalidInputError("points", "readings whose frequency falls as the capacitance rises (these give "
                                 "an inductance of zero or less): check which capacitor went with which reading")
     intercept = intercept_s * y_scale
     c0 = intercept / L
@@ -716,15 +717,15 @@ def drive_fields(*, reactance: float, power: float | None = None, q: float | Non
     """
     fields: dict = {}
     if power is not None:
-        fields["power_W"] = _positive(power, "--power", "W")
+        fields["power_W"] = _positive(power, "power", "W")
         low, high = TANK_POWER_RANGE
         if not low <= fields["power_W"] <= high:
-            raise InvalidInputError("--power", f"a power from {_f(low, 'W', 1)} to {_f(high, 'W', 1)}",
+            raise InvalidInputError("power", f"a power from {_f(low, 'W', 1)} to {_f(high, 'W', 1)}",
                                     _f(fields["power_W"], "W"))
     if q is not None:
-        fields["q"] = _positive(q, "--q", "")
+        fields["q"] = _positive(q, "q", "")
         if fields["q"] > MAX_TANK_Q:
-            raise InvalidInputError("--q", f"a loaded Q above 0 and at most {MAX_TANK_Q:.0f}", f"{fields['q']:.6g}")
+            raise InvalidInputError("q", f"a loaded Q above 0 and at most {MAX_TANK_Q:.0f}", f"{fields['q']:.6g}")
         fields["parallel_resistance_ohm"] = fields["q"] * float(reactance)
     if power is not None and q is not None:
         volts = float(rs.tank_voltage_rms(power, q, reactance))

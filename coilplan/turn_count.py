@@ -110,9 +110,9 @@ def _henry(value: float) -> str:
     return format_quantity(value, "H", 4)
 
 
-def _meter_note(tolerance: float, option: str = "--tolerance") -> str:
+def _meter_note(tolerance: float) -> str:
     return (f"each inductance reading within ±{_percent(tolerance)}: an assumed figure for a bench LCR meter; "
-            f"replace it with your meter's stated accuracy ({option})")
+            "replace it with your meter's stated accuracy (--tolerance)")
 
 
 def _check_tolerance(value: float, option: str) -> float:
@@ -343,11 +343,11 @@ def count_from_added_turns(before: float, after: float, added: int,
     >>> round(estimate.turns_exact, 1), estimate.turns, estimate.turns_range
     (100.8, 101, (91, 113))
     """
-    before = _check_positive(before, "--before", "an inductance")
-    after = _check_positive(after, "--after", "an inductance")
-    tolerance = _check_tolerance(tolerance, "--tolerance")
+    before = _check_positive(before, "before", "an inductance")
+    after = _check_positive(after, "after", "an inductance")
+    tolerance = _check_tolerance(tolerance, "tolerance")
     if added == 0 or added != int(added):
-        raise InvalidInputError("--added", "a whole number of turns other than 0 (negative for turns removed)",
+        raise InvalidInputError("added", "a whole number of turns other than 0 (negative for turns removed)",
                                 added)
     added = int(added)
     ratio = after / before
@@ -358,12 +358,12 @@ def count_from_added_turns(before: float, after: float, added: int,
             f"after adding {count} turn{plural} the inductance did not rise ({_henry(before)} before, "
             f"{_henry(after)} after): the turns were wound in the opposite sense (they cancel rather than add), "
             "sit on a different core, or a reading is wrong; check the winding direction and measure again",
-            option="--after")
+            option="after")
     if added < 0 and ratio >= 1.0:
         raise InfeasibleError(
             f"after removing {count} turn{plural} the inductance did not fall ({_henry(before)} before, "
             f"{_henry(after)} after): a reading is wrong, or the turns removed were wound in the opposite sense",
-            option="--after")
+            option="after")
     root = math.sqrt(ratio)
     turns = added / (root - 1.0)
     low, high = _added_interval(ratio, added, tolerance)
@@ -454,11 +454,11 @@ def count_from_test_winding(test_inductance: float, test_turns: int, unknown_ind
     >>> round(estimate.turns_exact, 3), estimate.turns_range
     (100.0, (99, 101))
     """
-    test_inductance = _check_positive(test_inductance, "--test-winding", "a test-winding inductance")
-    unknown_inductance = _check_positive(unknown_inductance, "--unknown", "an inductance")
-    tolerance = _check_tolerance(tolerance, "--tolerance")
+    test_inductance = _check_positive(test_inductance, "test_inductance", "a test-winding inductance")
+    unknown_inductance = _check_positive(unknown_inductance, "unknown_inductance", "an inductance")
+    tolerance = _check_tolerance(tolerance, "tolerance")
     if test_turns < 1 or test_turns != int(test_turns):
-        raise InvalidInputError("--test-winding", "a test winding of at least 1 whole turn", test_turns)
+        raise InvalidInputError("test_turns", "a test winding of at least 1 whole turn", test_turns)
     test_turns = int(test_turns)
     root = math.sqrt(unknown_inductance / test_inductance)
     turns = test_turns * root
@@ -516,10 +516,10 @@ def mean_turn_length(inner_perimeter: float, outer_perimeter: float) -> float:
     >>> round(mean_turn_length(0.040, 0.060), 6)
     0.05
     """
-    inner = _check_positive(inner_perimeter, "--inner-perimeter", "a length")
-    outer = _check_positive(outer_perimeter, "--outer-perimeter", "a length")
+    inner = _check_positive(inner_perimeter, "inner_perimeter", "a length")
+    outer = _check_positive(outer_perimeter, "outer_perimeter", "a length")
     if outer < inner:
-        raise InvalidInputError("--outer-perimeter", f"a perimeter at least the inner perimeter "
+        raise InvalidInputError("outer_perimeter", f"a perimeter at least the inner perimeter "
                                 f"{format_length(inner)}", format_length(outer))
     return 0.5 * (inner + outer)
 
@@ -578,16 +578,16 @@ def count_from_resistance(resistance: float, wire: Wire, turn_length: float, *, 
     >>> round(estimate.turns_exact, 1), estimate.turns_range
     (100.0, (90, 112))
     """
-    resistance = _check_positive(resistance, "--resistance", "a resistance")
-    turn_length = _check_positive(turn_length, "--turn-length", "a length")
+    resistance = _check_positive(resistance, "resistance", "a resistance")
+    turn_length = _check_positive(turn_length, "turn_length", "a length")
     if not (math.isfinite(lead_resistance) and lead_resistance >= 0):
-        raise InvalidInputError("--lead-resistance", "a resistance of zero or more", f"{lead_resistance:.6g}")
+        raise InvalidInputError("lead_resistance", "a resistance of zero or more", f"{lead_resistance:.6g}")
     if lead_resistance >= resistance:
-        raise InvalidInputError("--lead-resistance", f"less than the reading {format_quantity(resistance, 'ohm')}",
+        raise InvalidInputError("lead_resistance", f"less than the reading {format_quantity(resistance, 'ohm')}",
                                 format_quantity(lead_resistance, "ohm"))
-    t_r = _check_tolerance(resistance_tolerance, "--resistance-tolerance")
-    t_d = _check_tolerance(diameter_tolerance, "--diameter-tolerance")
-    t_l = _check_tolerance(length_tolerance, "--length-tolerance")
+    t_r = _check_tolerance(resistance_tolerance, "resistance_tolerance")
+    t_d = _check_tolerance(diameter_tolerance, "diameter_tolerance")
+    t_l = _check_tolerance(length_tolerance, "length_tolerance")
     per_metre = float(wire.resistance_per_metre(temperature_C))
     net = resistance - lead_resistance
     copper_length = net / per_metre
@@ -731,10 +731,20 @@ def strongest_estimate(estimates: Sequence[TurnEstimate], skipped: Sequence[str]
 
 
 _NEEDS = {
-    "added-turns": "added turns needs --before, --after and --added (or --removed)",
-    "test-winding": "test winding needs --test-winding L@N and --unknown",
-    "resistance": "DC resistance needs --resistance, --wire and --turn-length (or --inner-perimeter and "
-                  "--outer-perimeter)",
+    "added-turns": "added turns needs the readings before and after a change and the turns added (or removed)",
+    "test-winding": "test winding needs the test winding's reading L@N and the unknown winding's inductance",
+    "resistance": "DC resistance needs the winding's resistance, the wire and the mean turn length (or the inner "
+                  "and outer perimeters)",
+}
+
+#: each method's data, field by field, in words (for the one that is missing)
+_DATA = {
+    "added-turns": {"before": "the reading before the change", "after": "the reading after the change",
+                    "added": "the turns added (or removed)"},
+    "test-winding": {"test_winding": "the test winding's reading L@N",
+                     "unknown_inductance": "the unknown winding's inductance"},
+    "resistance": {"resistance": "the winding's DC resistance", "wire": "the wire",
+                   "turn_length": "the mean turn length"},
 }
 
 
@@ -768,7 +778,7 @@ def count_turns(*, before: float | None = None, after: float | None = None, adde
     Raises
     ------
     InvalidInputError
-        A method's data incomplete (names the missing option), or no method's data at all.
+        A method's data incomplete (names the missing field), or no method's data at all.
     InfeasibleError
         Every method with data failed (e.g. the inductance fell after adding turns).
 
@@ -780,18 +790,17 @@ def count_turns(*, before: float | None = None, after: float | None = None, adde
     ('test-winding', 101)
     """
     groups = {
-        "added-turns": {"--before": before, "--after": after, "--added": added},
-        "test-winding": {"--test-winding": test_winding, "--unknown": unknown_inductance},
-        "resistance": {"--resistance": resistance, "--wire": wire, "--turn-length": turn_length},
+        "added-turns": {"before": before, "after": after, "added": added},
+        "test-winding": {"test_winding": test_winding, "unknown_inductance": unknown_inductance},
+        "resistance": {"resistance": resistance, "wire": wire, "turn_length": turn_length},
     }
     wanted = []
     for method, values in groups.items():
-        present = [name for name, value in values.items() if value is not None]
-        if not present:
+        if all(value is None for value in values.values()):
             continue
         missing = [name for name, value in values.items() if value is None]
         if missing:
-            raise InvalidInputError(missing[0], f"a value to go with {', '.join(present)}: {_NEEDS[method]}", None)
+            raise InvalidInputError(missing[0], f"{_DATA[method][missing[0]]} too: {_NEEDS[method]}", None)
         wanted.append(method)
     if not wanted:
         raise InvalidInputError("measurements", f"the data of at least one method: {'; '.join(_NEEDS.values())}",

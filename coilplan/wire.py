@@ -158,7 +158,7 @@ def _gauge_error(option: str, expected: str, text: object, why: str = "") -> Inv
     return InvalidInputError(option, expected + (f" ({why})" if why else ""), text)
 
 
-def parse_awg_gauge(text: str, option: str = "--wire") -> float:
+def parse_awg_gauge(text: str, option: str = "gauge") -> float:
     """Read an AWG gauge number: ``"24"``, ``"24.5"``, ``"0"``, ``"00"`` … ``"0000"``, ``"4/0"``.
 
     ``"0000"`` and ``"4/0"`` are −3 in the formula of :func:`awg_diameter`, ``"00"``
@@ -276,7 +276,7 @@ def _swg_name(text: str, option: str) -> str:
     return name
 
 
-def swg_diameter(gauge, option: str = "--wire") -> float:
+def swg_diameter(gauge, option: str = "gauge") -> float:
     """Bare diameter of an Imperial Standard Wire Gauge size, from ``core_data/swg.csv``.
 
     Parameters
@@ -284,7 +284,7 @@ def swg_diameter(gauge, option: str = "--wire") -> float:
     gauge : str or int
         ``"26"``, ``26``, ``"7/0"`` or ``"0000000"`` (7/0), ``"0"`` (1/0).
     option : str
-        The option named in an error message.
+        The field named in an error message.
 
     Returns
     -------
@@ -404,7 +404,7 @@ class EnamelBuild(NamedTuple):
     """True where a value came from beyond the table's rows, not between them."""
 
 
-def _check_grade(grade: object, option: str = "--grade") -> str:
+def _check_grade(grade: object, option: str = "grade") -> str:
     text = str(grade).strip().lower()
     if text not in GRADES:
         raise InvalidInputError(option, "an enamel grade: 1, 2, 3 or bare", grade)
@@ -439,7 +439,7 @@ def enamel_build(diameter, grade="1") -> EnamelBuild:
     Raises
     ------
     InvalidInputError
-        A grade other than 1, 2 or 3 (option ``--grade``).
+        A grade other than 1, 2 or 3 (field ``grade``).
 
     Notes
     -----
@@ -471,7 +471,7 @@ def enamel_build(diameter, grade="1") -> EnamelBuild:
     """
     grade = _check_grade(grade)
     if grade == "bare":
-        raise InvalidInputError("--grade", "an enamel grade: 1, 2 or 3", grade)
+        raise InvalidInputError("grade", "an enamel grade: 1, 2 or 3", grade)
     diameter = np.asarray(diameter, dtype=float)
     smallest, largest = _enamel_columns()[grade]
     minimum_increase, low_out = smallest(diameter)
@@ -628,7 +628,7 @@ def _litz(match, *, raw_text: str, grade: str, overall: float | None, option: st
     bundle = strand.diameter * factor
     bundle_overall = strand.overall_diameter * factor if overall is None else overall
     if bundle_overall < bundle:
-        raise InvalidInputError("--overall", f"an overall diameter of at least the bundle's "
+        raise InvalidInputError("overall", f"an overall diameter of at least the bundle's "
                                 f"{bundle * 1e3:.3f} mm", f"{bundle_overall * 1e3:.3f} mm")
     return Wire(label=f"{strands}×{strand.label} litz", series=strand.series, diameter=bundle,
                 overall_diameter=bundle_overall, grade="measured" if overall is not None else strand.grade,
@@ -654,7 +654,7 @@ def _checked_wire(label: str, series: str, diameter: float, grade: str,
                   overall: float | None) -> Wire:
     if overall is not None and not (math.isfinite(overall) and overall >= diameter):
         shown = _mm_label(overall) if math.isfinite(overall) else overall
-        raise InvalidInputError("--overall", "a measured overall diameter no smaller than "
+        raise InvalidInputError("overall", "a measured overall diameter no smaller than "
                                 f"the bare diameter {_mm_label(diameter)}", shown)
     return _make_wire(label, series, diameter, grade, overall)
 
@@ -667,7 +667,7 @@ def _is_length_unit(suffix: str) -> bool:
     return True
 
 
-def parse_wire(text: str, grade="1", overall: float | None = None, option: str = "--wire",
+def parse_wire(text: str, grade="1", overall: float | None = None, option: str = "wire",
                *, series: str | None = None) -> Wire:
     """Read a wire as a user names it: an AWG or SWG gauge, or a bare diameter.
 
@@ -687,7 +687,7 @@ def parse_wire(text: str, grade="1", overall: float | None = None, option: str =
         A measured overall diameter, m; it overrides the grade's estimate and
         must be at least the bare diameter.
     option : str
-        The option named in error messages for ``text``.
+        The field named in error messages for ``text``.
     series : {"awg", "swg", "metric"}, optional
         How to read a plain number (``"24"``): as a gauge of that series, or for
         ``"metric"`` as millimetres. Without it a plain number is refused.
@@ -700,8 +700,8 @@ def parse_wire(text: str, grade="1", overall: float | None = None, option: str =
     ------
     InvalidInputError
         Malformed text, a gauge outside its series (on ``option``), a grade not
-        in 1, 2, 3, bare (on ``--grade``), an overall diameter below the bare
-        diameter (on ``--overall``).
+        in 1, 2, 3, bare (on ``grade``), an overall diameter below the bare
+        diameter (on ``overall``).
 
     Examples
     --------
@@ -715,7 +715,7 @@ def parse_wire(text: str, grade="1", overall: float | None = None, option: str =
     if match := _LITZ.fullmatch(str(text).strip().lower()):
         return _litz(match, raw_text=str(text), grade=grade, overall=overall, option=option)
     if series is not None and series not in ("awg", "swg", "metric"):
-        raise InvalidInputError("--series", "one of awg, swg, metric", series)
+        raise InvalidInputError("series", "one of awg, swg, metric", series)
     raw = str(text)
     stripped = raw.strip().lower()
     if not stripped:
@@ -805,7 +805,7 @@ def wire_table(series: str, grade="1") -> list[Wire]:
     Raises
     ------
     InvalidInputError
-        An unknown series (``--series``) or grade (``--grade``).
+        An unknown series (``series``) or grade (``grade``).
 
     Examples
     --------
@@ -814,7 +814,7 @@ def wire_table(series: str, grade="1") -> list[Wire]:
     """
     key = str(series).strip().lower()
     if key not in ("awg", "swg", "metric"):
-        raise InvalidInputError("--series", "one of awg, swg, metric", series)
+        raise InvalidInputError("series", "one of awg, swg, metric", series)
     return list(_table(key, _check_grade(grade)))
 
 
@@ -826,7 +826,7 @@ _DENSITY_UNITS = {"a/mm2": 1.0, "a/mm²": 1.0, "a/mm^2": 1.0, "a/mm**2": 1.0,
 _DENSITY_MAX = 50.0  # A/mm²: above this a coil's current density is surely a slip of unit
 
 
-def parse_current_density(text, option: str = "--density") -> float:
+def parse_current_density(text, option: str = "density") -> float:
     """Read a current density, returned in A/mm² (``"3"``, ``"3A/mm2"``, ``"300A/cm2"``).
 
     Raises
@@ -882,7 +882,7 @@ def current_for_density(wire: Wire, density_A_per_mm2):
     Raises
     ------
     InvalidInputError
-        A density that is not above zero (option ``--density``).
+        A density that is not above zero (``density_A_per_mm2``).
 
     Examples
     --------
@@ -891,6 +891,6 @@ def current_for_density(wire: Wire, density_A_per_mm2):
     """
     density = np.asarray(density_A_per_mm2, dtype=float)
     if not np.all(np.isfinite(density) & (density > 0)):
-        raise InvalidInputError("--density", "a current density above zero, in A/mm²",
+        raise InvalidInputError("density_A_per_mm2", "a current density above zero, in A/mm²",
                                 density_A_per_mm2)
     return (density * wire.area * 1e6)[()]

@@ -144,7 +144,7 @@ def test_the_library_names_its_own_fields_and_the_command_line_its_options():
     assert caught.value.option == "turns"
     with pytest.raises(InvalidInputError) as caught:
         design(RodCoil(rod_length=0.1, rod_diameter=0.01, mu_initial=None, wire=WIRE), Request(turns=10))
-    assert caught.value.option == "mu"
+    assert caught.value.option == "mu_initial"
     outcome = CliRunner().invoke(main, ["rod", "--rod-length", "100mm", "--rod-diameter", "10mm", "--wire",
                                         "0.5mm", "--turns", "10"])
     assert outcome.exit_code == 2 and outcome.stderr.startswith("coilplan: error: --mu: expected")

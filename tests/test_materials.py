@@ -304,11 +304,11 @@ def test_material_lookup_is_case_and_separator_blind(typed):
 
 
 def test_unknown_material_suggests_the_close_name():
-    """An unknown name raises InvalidInputError on --material, suggesting the close one."""
+    """An unknown name raises InvalidInputError on the material, suggesting the close one."""
     with pytest.raises(InvalidInputError) as caught:
         material("nizn-152")
     error = caught.value
-    assert error.option == "--material" and error.got == "nizn-152"
+    assert error.option == "material" and error.got == "nizn-152"
     assert "did you mean nizn-125?" in error.expected
     assert isinstance(error, ValueError)
 
@@ -386,18 +386,18 @@ def test_identification_agrees_with_a_direct_check_of_the_csv(mu_r, tolerance):
 
 @pytest.mark.parametrize("bad", [0, -5, math.nan, math.inf, "abc", None])
 def test_bad_permeability_raises_on_mu(bad):
-    """A permeability that is not a finite number above zero is refused on --mu."""
+    """A permeability that is not a finite number above zero is refused on mu_r."""
     with pytest.raises(InvalidInputError) as caught:
         materials_for_permeability(bad)
-    assert caught.value.option == "--mu"
+    assert caught.value.option == "mu_r"
 
 
 @pytest.mark.parametrize("bad", [-0.1, math.nan, math.inf, "wide"])
 def test_bad_tolerance_raises_on_tolerance(bad):
-    """A negative or non-finite tolerance is refused on --tolerance."""
+    """A negative or non-finite tolerance is refused on the tolerance."""
     with pytest.raises(InvalidInputError) as caught:
         materials_for_permeability(100, tolerance=bad)
-    assert caught.value.option == "--tolerance"
+    assert caught.value.option == "tolerance"
 
 
 def test_identification_leaves_no_gap_between_the_classes():
@@ -491,11 +491,11 @@ def test_loss_factor_is_reproduced_at_its_frequency(name):
 
 
 def test_air_has_no_dispersion_and_unknown_names_fail():
-    """Air gives None (no core loss); an unknown class raises InvalidInputError naming --material."""
+    """Air gives None (no core loss); an unknown class raises InvalidInputError naming the material."""
     assert materials_module.material_dispersion("air") is None
     with pytest.raises(InvalidInputError) as caught:
         materials_module.material_dispersion("nizn-152")
-    assert caught.value.option == "--material"
+    assert caught.value.option == "material"
 
 
 @pytest.mark.parametrize(("change", "column"), [

@@ -16,7 +16,7 @@ from coilplan.wire import parse_wire
 
 
 def wire(text="0.3mm", grade="1"):
-    return parse_wire(text, grade=grade, overall=None, option="--wire")
+    return parse_wire(text, grade=grade, overall=None)
 
 
 @settings(max_examples=8, deadline=None)
@@ -72,13 +72,13 @@ def test_wheeler_method_warns_outside_its_range():
         form.validity_warnings(400)
 
 
-def test_bad_input_names_the_option():
-    """Errors name the option: a width below one turn, packing below 1, touching bare spiral turns."""
-    with pytest.raises(InvalidInputError, match="--width"):
+def test_bad_input_names_the_field():
+    """Errors name the field: a width below one turn, packing below 1, touching bare spiral turns."""
+    with pytest.raises(InvalidInputError, match=r"^width:"):
         MultilayerCoil(former_diameter=0.01, width=0.0001, wire=wire())
-    with pytest.raises(InvalidInputError, match="--packing"):
+    with pytest.raises(InvalidInputError, match=r"^packing:"):
         MultilayerCoil(former_diameter=0.01, width=0.01, wire=wire(), packing=0.9)
-    with pytest.raises(InvalidInputError, match="--spacing"):
+    with pytest.raises(InvalidInputError, match=r"^spacing:"):
         FlatSpiral(inner_diameter=0.01, wire=wire("0.5mm", "bare"))
 
 

@@ -63,13 +63,13 @@ def test_two_of_three_round_trips(inductance, capacitance):
 
 
 @pytest.mark.parametrize(("kwargs", "option"), [
-    pytest.param({"frequency": 1e6}, "--inductance or --capacitance", id="one-given"),
-    pytest.param({}, "--inductance or --capacitance or --frequency", id="none-given"),
-    pytest.param({"frequency": 1e6, "inductance": 1e-6, "capacitance": 1e-9}, "--frequency", id="all-three"),
-    pytest.param({"frequency": 1e6, "inductance": -1e-6}, "--inductance", id="negative"),
+    pytest.param({"frequency": 1e6}, "inductance or capacitance", id="one-given"),
+    pytest.param({}, "inductance or capacitance or frequency", id="none-given"),
+    pytest.param({"frequency": 1e6, "inductance": 1e-6, "capacitance": 1e-9}, "frequency", id="all-three"),
+    pytest.param({"frequency": 1e6, "inductance": -1e-6}, "inductance", id="negative"),
 ])
-def test_two_of_three_errors_name_the_option(kwargs, option):
-    """Not exactly two given, or a value not above zero: InvalidInputError naming the option."""
+def test_two_of_three_errors_name_the_field(kwargs, option):
+    """Not exactly two given, or a value not above zero: InvalidInputError naming the field."""
     with pytest.raises(InvalidInputError) as caught:
         solve_tank(**kwargs)
     assert caught.value.option == option
@@ -101,10 +101,10 @@ def test_parse_range_errors(text, unit, option):
 
 @pytest.mark.parametrize("text", ["100pF", "100pF@", "1.2MHz@100pF", "100pF@1.2MHz@3"])
 def test_parse_resonance_errors(text):
-    """Not C@f: InvalidInputError on --resonance with the expected form."""
+    """Not C@f: InvalidInputError on the fit's points with the expected form."""
     with pytest.raises(InvalidInputError) as caught:
         parse_resonance(text)
-    assert caught.value.option == "--resonance" and "100pF@1.2MHz" in caught.value.expected
+    assert caught.value.option == "points" and "100pF@1.2MHz" in caught.value.expected
 
 
 # --- band coverage ------------------------------------------------------------------------------------------------
@@ -208,13 +208,13 @@ def test_band_a_given_coil_that_misses_the_band():
 
 
 @pytest.mark.parametrize(("kwargs", "option"), [
-    pytest.param({"capacitor": (365e-12, 10e-12), "band": BAND}, "--capacitor", id="min-above-max"),
-    pytest.param({"capacitor": (10e-12, 365e-12)}, "--capacitor", id="no-band-no-coil"),
-    pytest.param({"capacitor": (10e-12, 365e-12), "band": BAND, "stray": -1e-12}, "--stray", id="negative-stray"),
-    pytest.param({"capacitor": (10e-12, 365e-12), "band": BAND, "padder": 0.0}, "--padder", id="zero-padder"),
+    pytest.param({"capacitor": (365e-12, 10e-12), "band": BAND}, "capacitor", id="min-above-max"),
+    pytest.param({"capacitor": (10e-12, 365e-12)}, "capacitor", id="no-band-no-coil"),
+    pytest.param({"capacitor": (10e-12, 365e-12), "band": BAND, "stray": -1e-12}, "stray", id="negative-stray"),
+    pytest.param({"capacitor": (10e-12, 365e-12), "band": BAND, "padder": 0.0}, "padder", id="zero-padder"),
 ])
-def test_band_errors_name_the_option(kwargs, option):
-    """Unusable band-planning input raises InvalidInputError naming the option."""
+def test_band_errors_name_the_field(kwargs, option):
+    """Unusable band-planning input raises InvalidInputError naming the field."""
     with pytest.raises(InvalidInputError) as caught:
         plan_band(**kwargs)
     assert caught.value.option == option
@@ -272,11 +272,11 @@ def test_fit_uncertainty_covers_the_truth(inductance, c0, count, first, seed):
 
 
 def test_fit_fails_clearly_on_a_single_point():
-    """One resonance gives only L·(C + C0): InvalidInputError on --resonance saying two or more are needed."""
+    """One resonance gives only L·(C + C0): InvalidInputError on the points saying two or more are needed."""
     with pytest.raises(InvalidInputError) as caught:
         fit_resonances([(100e-12, 1.2e6)])
-    assert caught.value.option == "--resonance"
-    assert str(caught.value) == "--resonance: expected two resonances or more: one gives only L·(C + C0)"
+    assert caught.value.option == "points"
+    assert str(caught.value) == "points: expected two resonances or more: one gives only L·(C + C0)"
 
 
 def test_fit_needs_two_different_capacitors_and_a_falling_frequency():
@@ -335,8 +335,8 @@ def test_drive_fields_and_cautions():
 # --- a driven tank's Q and power within reason (issue 8) --------------------------------------------------------
 
 
-@pytest.mark.parametrize(("fields", "option"), [({"q": 1e300}, "--q"), ({"q": 1.5e5}, "--q"),
-                                                ({"power": 1e300}, "--power"), ({"power": 1e-9}, "--power")])
+@pytest.mark.parametrize(("fields", "option"), [({"q": 1e300}, "q"), ({"q": 1.5e5}, "q"),
+                                                ({"power": 1e300}, "power"), ({"power": 1e-9}, "power")])
 def test_drive_beyond_any_tank_is_refused(fields, option):
     """A loaded Q above 100,000 or a power outside a microwatt to 100 kW is a slip, refused by name: the
     voltage √(P·Q·X) would otherwise be a figure of hundreds of digits."""

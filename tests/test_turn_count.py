@@ -117,7 +117,7 @@ def test_added_turns_refuses_inductance_that_did_not_rise():
     """L2 ≤ L1 after adding turns (turns in the opposite sense, or a bad reading) is refused with the reason."""
     with pytest.raises(InfeasibleError, match="opposite sense") as caught:
         count_from_added_turns(1.2e-3, 1.1e-3, 10)
-    assert caught.value.option == "--after"
+    assert caught.value.option == "after"
     with pytest.raises(InfeasibleError, match="did not rise"):
         count_from_added_turns(1.2e-3, 1.2e-3, 10)
     with pytest.raises(InfeasibleError, match="did not fall"):
@@ -264,7 +264,7 @@ def test_mean_turn_length_of_an_even_layered_winding():
     assert mean_turn_length(inner, outer) == pytest.approx(sum(per_layer) / layers, rel=1e-12, abs=0)
     with pytest.raises(InvalidInputError) as caught:
         mean_turn_length(0.05, 0.04)
-    assert caught.value.option == "--outer-perimeter"
+    assert caught.value.option == "outer_perimeter"
 
 
 # --------------------------------------------------------------------------- the strongest method
@@ -329,10 +329,10 @@ def test_assumed_tolerances_are_listed_and_given_ones_are_not():
 
 
 @pytest.mark.parametrize(("data", "option"), [
-    pytest.param({"before": 1e-3}, "--after", id="before-alone"),
-    pytest.param({"before": 1e-3, "after": 2e-3}, "--added", id="no-added"),
-    pytest.param({"unknown_inductance": 1e-3}, "--test-winding", id="unknown-alone"),
-    pytest.param({"resistance": 1.0, "turn_length": 0.04}, "--wire", id="no-wire"),
+    pytest.param({"before": 1e-3}, "after", id="before-alone"),
+    pytest.param({"before": 1e-3, "after": 2e-3}, "added", id="no-added"),
+    pytest.param({"unknown_inductance": 1e-3}, "test_winding", id="unknown-alone"),
+    pytest.param({"resistance": 1.0, "turn_length": 0.04}, "wire", id="no-wire"),
     pytest.param({}, "measurements", id="nothing"),
 ])
 def test_incomplete_data_names_the_missing_option(data, option):
@@ -343,12 +343,12 @@ def test_incomplete_data_names_the_missing_option(data, option):
 
 
 @pytest.mark.parametrize(("call", "option"), [
-    pytest.param(lambda: count_from_added_turns(1e-3, 2e-3, 0), "--added", id="zero-added"),
-    pytest.param(lambda: count_from_added_turns(-1e-3, 2e-3, 5), "--before", id="negative-reading"),
-    pytest.param(lambda: count_from_added_turns(1e-3, 2e-3, 5, 0.6), "--tolerance", id="tolerance-too-big"),
-    pytest.param(lambda: count_from_test_winding(1e-3, 0, 2e-3), "--test-winding", id="no-test-turns"),
+    pytest.param(lambda: count_from_added_turns(1e-3, 2e-3, 0), "added", id="zero-added"),
+    pytest.param(lambda: count_from_added_turns(-1e-3, 2e-3, 5), "before", id="negative-reading"),
+    pytest.param(lambda: count_from_added_turns(1e-3, 2e-3, 5, 0.6), "tolerance", id="tolerance-too-big"),
+    pytest.param(lambda: count_from_test_winding(1e-3, 0, 2e-3), "test_turns", id="no-test-turns"),
     pytest.param(lambda: count_from_resistance(1.0, parse_wire("0.3mm"), 0.04, lead_resistance=1.5),
-                 "--lead-resistance", id="leads-above-reading"),
+                 "lead_resistance", id="leads-above-reading"),
 ])
 def test_bad_values_name_their_option(call, option):
     """Values out of range raise InvalidInputError with the option that carried them."""

@@ -280,11 +280,11 @@ def test_enamel_extrapolation_is_flagged_and_continuous():
 
 
 def test_enamel_rejects_other_grades():
-    """enamel_build takes grades 1, 2, 3; anything else is an error on --grade."""
+    """enamel_build takes grades 1, 2, 3; anything else is an error on the grade."""
     for grade in ("bare", "4", "thick"):
         with pytest.raises(InvalidInputError) as caught:
             enamel_build(0.5e-3, grade)
-        assert caught.value.option == "--grade"
+        assert caught.value.option == "grade"
 
 
 def test_enamel_nan_transparent():
@@ -389,33 +389,33 @@ def test_parse_wire_accepted_spellings(text, label, diameter):
 
 
 @pytest.mark.parametrize(("text", "kwargs", "option"), [
-    pytest.param("", {}, "--wire", id="empty"),
-    pytest.param("24", {}, "--wire", id="plain-number"),
-    pytest.param("awg", {}, "--wire", id="series-without-gauge"),
-    pytest.param("24 bwg", {}, "--wire", id="unknown-series"),
-    pytest.param("24agw", {}, "--wire", id="misspelt-series"),
-    pytest.param("60swg", {}, "--wire", id="swg-beyond-data"),
-    pytest.param("8/0swg", {}, "--wire", id="swg-8/0"),
-    pytest.param("26.5swg", {}, "--wire", id="swg-half"),
-    pytest.param("57awg", {}, "--wire", id="awg-too-fine"),
-    pytest.param("5/0awg", {}, "--wire", id="awg-5/0"),
-    pytest.param("24.3awg", {}, "--wire", id="awg-not-half"),
-    pytest.param("024awg", {}, "--wire", id="awg-leading-zero"),
-    pytest.param("1,5mm", {}, "--wire", id="decimal-comma"),
-    pytest.param("-0.5mm", {}, "--wire", id="negative"),
-    pytest.param("0mm", {}, "--wire", id="zero"),
-    pytest.param("0.5m", {}, "--wire", id="metres-slip"),
-    pytest.param("5um", {}, "--wire", id="too-fine"),
-    pytest.param("0.5 furlong", {}, "--wire", id="unknown-unit"),
-    pytest.param("copper", {}, "--wire", id="word"),
-    pytest.param("24awg", {"grade": "4"}, "--grade", id="grade-4"),
-    pytest.param("24awg", {"grade": "measured"}, "--grade", id="grade-measured"),
-    pytest.param("24awg", {"overall": 0.4e-3}, "--overall", id="overall-below-bare"),
-    pytest.param("24awg", {"overall": float("nan")}, "--overall", id="overall-nan"),
-    pytest.param("24", {"series": "bwg"}, "--series", id="series-unknown"),
+    pytest.param("", {}, "wire", id="empty"),
+    pytest.param("24", {}, "wire", id="plain-number"),
+    pytest.param("awg", {}, "wire", id="series-without-gauge"),
+    pytest.param("24 bwg", {}, "wire", id="unknown-series"),
+    pytest.param("24agw", {}, "wire", id="misspelt-series"),
+    pytest.param("60swg", {}, "wire", id="swg-beyond-data"),
+    pytest.param("8/0swg", {}, "wire", id="swg-8/0"),
+    pytest.param("26.5swg", {}, "wire", id="swg-half"),
+    pytest.param("57awg", {}, "wire", id="awg-too-fine"),
+    pytest.param("5/0awg", {}, "wire", id="awg-5/0"),
+    pytest.param("24.3awg", {}, "wire", id="awg-not-half"),
+    pytest.param("024awg", {}, "wire", id="awg-leading-zero"),
+    pytest.param("1,5mm", {}, "wire", id="decimal-comma"),
+    pytest.param("-0.5mm", {}, "wire", id="negative"),
+    pytest.param("0mm", {}, "wire", id="zero"),
+    pytest.param("0.5m", {}, "wire", id="metres-slip"),
+    pytest.param("5um", {}, "wire", id="too-fine"),
+    pytest.param("0.5 furlong", {}, "wire", id="unknown-unit"),
+    pytest.param("copper", {}, "wire", id="word"),
+    pytest.param("24awg", {"grade": "4"}, "grade", id="grade-4"),
+    pytest.param("24awg", {"grade": "measured"}, "grade", id="grade-measured"),
+    pytest.param("24awg", {"overall": 0.4e-3}, "overall", id="overall-below-bare"),
+    pytest.param("24awg", {"overall": float("nan")}, "overall", id="overall-nan"),
+    pytest.param("24", {"series": "bwg"}, "series", id="series-unknown"),
 ])
 def test_parse_wire_malformed(text, kwargs, option):
-    """Malformed wires raise InvalidInputError on the option that holds the mistake."""
+    """Malformed wires raise InvalidInputError on the field that holds the mistake."""
     with pytest.raises(InvalidInputError) as caught:
         parse_wire(text, **kwargs)
     assert caught.value.option == option
@@ -539,11 +539,11 @@ def test_parse_current_density_refuses(text):
     """Zero, negative, decimal commas, wrong units and slips of unit are refused."""
     with pytest.raises(InvalidInputError) as caught:
         parse_current_density(text)
-    assert caught.value.option == "--density"
+    assert caught.value.option == "density"
 
 
 def test_wire_table_series():
-    """AWG lists 4/0 to 44, SWG 7/0 to 50; an unknown series is an error on --series."""
+    """AWG lists 4/0 to 44, SWG 7/0 to 50; an unknown series is an error on the series."""
     awg = wire_table("awg")
     assert [awg[0].label, awg[-1].label, len(awg)] == ["4/0 AWG", "44 AWG", 48]
     swg = wire_table("SWG", grade="2")
@@ -551,7 +551,7 @@ def test_wire_table_series():
     assert wire_table("awg") == wire_table("awg") and wire_table("awg") is not wire_table("awg")
     with pytest.raises(InvalidInputError) as caught:
         wire_table("bwg")
-    assert caught.value.option == "--series"
+    assert caught.value.option == "series"
 
 
 # --------------------------------------------------------------------------- loader

@@ -1,9 +1,10 @@
 """The ``coilplan`` command line: a thin layer that parses, calls the library and renders.
 
 Commands are imported only when they run, so a plain solve does not pay for
-the imports of commands it does not use. Errors are mapped here, once: bad
-input is one line on stderr and exit status 2, an infeasible request one line
-and exit status 1, never a traceback.
+the imports of commands it does not use. Errors are mapped here, once: the
+library's field names become the options of the command that ran
+(:mod:`coilplan.cli._fields`); bad input is one line on stderr and exit status 2,
+an infeasible request one line and exit status 1, never a traceback.
 """
 
 from __future__ import annotations
@@ -49,6 +50,14 @@ class _CoilplanGroup(click.Group):
         module = importlib.import_module(f"coilplan.cli.{module_name}")
         return getattr(module, attribute)
 
+    def invoke(self, ctx: click.Context):
+        try:
+            return super().invoke(ctx)
+        except (InvalidInputError, InfeasibleError) as error:  # the library's field as the option typed
+            from coilplan.cli._fields import in_option_words
+
+            raise in_option_words(error, ctx.invoked_subcommand) from None
+
     def format_commands(self, ctx: click.Context, formatter: click.HelpFormatter) -> None:
         # Short help from the table, without importing every command module.
         rows = [(name, _COMMANDS[name][2]) for name in self.list_commands(ctx)]
@@ -68,9 +77,7 @@ class _CoilplanGroup(click.Group):
             where = error.ctx.command_path if error.ctx else "coilplan"
             code = _fail(f"{error.format_message()} (see '{where} --help')", 2)
         except InvalidInputError as error:
-            from coilplan.cli._fields import in_option_words
-
-            code = _fail(str(in_option_words(error)), 2)
+            code = _fail(str(error), 2)
         except InfeasibleError as error:
             code = _fail(f"cannot be done: {error}", 1)
         except click.ClickException as error:

@@ -112,7 +112,7 @@ def count_turns(before, after, added, removed, test_winding_text, unknown, resis
     data = (before, after, change, test_winding, unknown, resistance, wire_text, length)
     if all(value is None for value in data):
         raise click.UsageError(_NEEDS_TEXT)
-    wire = parse_wire(wire_text, option="--wire") if wire_text is not None else None
+    wire = parse_wire(wire_text) if wire_text is not None else None
     with captured_warnings() as range_warnings:
         answer = turn_count.count_turns(
             before=before, after=after, added=change, test_winding=test_winding, unknown_inductance=unknown,

@@ -52,7 +52,7 @@ def form_from(options: dict):
     if core.al_given is None and not options["measured"] and core.mu_r is None:
         raise InvalidInputError("--mu", "the core's permeability (--mu or --material), or --al / --measured", None)
 
-    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"])
     return GappedCore(ae=options["ae"], le=options["le"], wire=wire, gap=options["gap"], mu_r=core.mu_r,
                       al=None if options["measured"] else core.al_given, window_width=options["window_width"],
                       window_depth=options["window_depth"], fringing=not options["no_fringing"],

@@ -44,7 +44,7 @@ def multilayer(**options):
 def form_from(options: dict):
     """The uncalibrated form the options describe (checked: one line naming the option otherwise)."""
 
-    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"])
     return MultilayerCoil(former_diameter=options["former"], width=options["width"], wire=wire,
                           style=options["style"], packing=options["packing"], max_depth=options["max_depth"],
                           lead=options["lead"], method=options["method"])

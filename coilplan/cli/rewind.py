@@ -39,7 +39,7 @@ def rewind(measured, target, offset, turn_length, wire_text, frequency, meter_fr
         # the N² law has no self-resonance to report: the value only corrects readings and target
         raise InvalidInputError("--self-capacitance", "--meter-freq and/or --at to go with it", None)
     with captured_warnings() as warnings_:
-        wire = parse_wire(wire_text, option="--wire") if wire_text else None
+        wire = parse_wire(wire_text) if wire_text else None
         form = ClosedCore(turn_length=turn_length, wire=wire, fit_offset=offset)
         request = Request(target=target, frequency=frequency, readings=tuple(Reading(v, n) for v, n in measured),
                           meter_frequency=meter_freq, tolerance=tolerance, self_capacitance=self_capacitance,

@@ -48,7 +48,7 @@ def form_from(options: dict):
     core = resolve_core(mu=options["mu"], material=options["material"], al=None, measured=None,
                         bsat=options["bsat"], temperature=options["temperature"], allow_gap=True)
 
-    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"])
     return RodCoil(rod_length=options["rod_length"], rod_diameter=options["rod_diameter"], mu_initial=core.mu_r,
                    wire=wire, former_diameter=options["former"], pitch=options["pitch"],
                    coil_length=options["coil_length"], position=options["position"],

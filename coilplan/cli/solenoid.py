@@ -59,7 +59,7 @@ def form_from(options: dict):
     """The uncalibrated form the options describe (checked: one line naming the option otherwise)."""
     one_of(("--former", options["former"]), ("--diameter", options["diameter"]))
 
-    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"])
     shape = {"wire": wire, "pitch": options["pitch"], "length": options["length"],
              "max_length": options["max_length"], "lead": options["lead"], "method": options["method"],
              "former_permittivity": options["former_permittivity"]}

@@ -45,7 +45,7 @@ def form_from(options: dict):
     if options["spacing"] is None and options["outer"] is None:
         raise InvalidInputError("--spacing", "one of --spacing or --outer", None)
 
-    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"])
     return FlatSpiral(inner_diameter=options["inner"], wire=wire,
                       spacing=0.0 if options["spacing"] is None else options["spacing"],
                       outer_diameter=options["outer"], lead=options["lead"], method=options["method"])

@@ -43,7 +43,7 @@ def form_from(options: dict):
     core = resolve_core(mu=options["mu"], material=options["material"], al=options["al"],
                         measured=options["measured"], bsat=options["bsat"], temperature=options["temperature"])
 
-    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"], option="--wire")
+    wire = parse_wire(options["wire_text"], grade=options["grade"], overall=options["overall"])
     known = None if options["measured"] else core.al_given
     return Toroid(inner_diameter=options["inner"], outer_diameter=options["outer"], height=options["height"],
                   wire=wire, al=known, al_basis=core.basis, mu_r=core.mu_r if known is None else None,

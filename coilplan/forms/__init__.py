@@ -17,8 +17,8 @@ coil at frequency (:mod:`coilplan.apparent`); ``permeability_response()`` says
 how L follows the core's permeability (:mod:`coilplan.core_frequency`).
 Cored forms add ``flux_density(N, current)`` (T) for saturation checks.
 Forms check their inputs and raise :class:`~coilplan.errors.InvalidInputError`
-naming the command-line option, so the command line and the library give the
-same message.
+naming their own field (``inner_diameter``, ``pitch``); the command line shows
+the option that set it (:mod:`coilplan.cli._fields`).
 """
 
 from __future__ import annotations

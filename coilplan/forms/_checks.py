@@ -1,4 +1,4 @@
-"""Input checks shared by the forms; each raises InvalidInputError naming the option."""
+"""Input checks shared by the forms; each raises InvalidInputError naming the form's field."""
 
 from __future__ import annotations
 
@@ -12,10 +12,10 @@ from coilplan.errors import InvalidInputError, OutsideValidityWarning
 __all__ = ["between_whole_turns", "outside_stated_range", "positive"]
 
 
-def positive(value: float | None, option: str, what: str) -> None:
-    """Accept None or a finite value above zero; otherwise name the option."""
+def positive(value: float | None, field: str, what: str) -> None:
+    """Accept None or a finite value above zero; otherwise name the field."""
     if value is not None and not (math.isfinite(value) and value > 0):
-        raise InvalidInputError(option, f"{what} above zero", value)
+        raise InvalidInputError(field, f"{what} above zero", value)
 
 
 def between_whole_turns(turns, value_at):

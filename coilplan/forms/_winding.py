@@ -40,6 +40,8 @@ class CoreLaw:
     """A closed-core form, L = AL·N²: readings set its AL value (:mod:`coilplan.calibrate`)."""
 
     calibration: ClassVar[str] = "al"
+    #: the field that stays unknown until readings set it (named when there are none)
+    permeability_field: ClassVar[str] = "mu_r"
 
     al: float | None
 

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from typing import ClassVar
 
 import numpy as np
 
@@ -36,6 +37,8 @@ class ClosedCore(CoreLaw):
     wire: Wire | None = None
     fit_offset: bool = False
 
+    permeability_field: ClassVar[str] = "al"  # readings set the AL value itself
+
     def with_al(self, al: float, offset: float = 0.0) -> ClosedCore:
         """This core with the AL value (and the leads' offset) the readings gave."""
         import dataclasses
@@ -43,8 +46,8 @@ class ClosedCore(CoreLaw):
         return dataclasses.replace(self, al=al, offset=offset)
 
     def __post_init__(self) -> None:
-        positive(self.al, "--al", "an AL value")
-        positive(self.turn_length, "--turn-length", "a mean turn length")
+        positive(self.al, "al", "an AL value")
+        positive(self.turn_length, "turn_length", "a mean turn length")
 
     def inductance(self, turns):
         return self.al * np.asarray(turns, dtype=float) ** 2 + self.offset

@@ -71,20 +71,20 @@ class GappedCore(CoreLaw, Rewindable):
     lead: float = 0.0
 
     def __post_init__(self) -> None:
-        positive(self.ae, "--ae", "an effective area")
-        positive(self.le, "--le", "an effective path length")
-        positive(self.mu_r, "--mu", "a relative permeability")
-        positive(self.al, "--al", "an AL value")
-        positive(self.window_width, "--window-width", "a winding width")
-        positive(self.window_depth, "--window-depth", "a winding depth")
+        positive(self.ae, "ae", "an effective area")
+        positive(self.le, "le", "an effective path length")
+        positive(self.mu_r, "mu_r", "a relative permeability")
+        positive(self.al, "al", "an AL value")
+        positive(self.window_width, "window_width", "a winding width")
+        positive(self.window_depth, "window_depth", "a winding depth")
         if self.gap is not None and not (math.isfinite(self.gap) and self.gap >= 0):
-            raise InvalidInputError("--gap", "a gap length of zero or more", self.gap)
+            raise InvalidInputError("gap", "a gap length of zero or more", self.gap)
         if not (math.isfinite(self.lead) and self.lead >= 0):
-            raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+            raise InvalidInputError("lead", "a lead allowance of zero or more", self.lead)
         if self.gap is not None and self.gap > 0.5 * self.le:
-            raise InvalidInputError("--gap", f"a gap well below the path length {format_length(self.le)}",
+            raise InvalidInputError("gap", f"a gap well below the path length {format_length(self.le)}",
                                     format_length(self.gap))
-        for name, value in (("--window-width", self.window_width), ("--window-depth", self.window_depth)):
+        for name, value in (("window_width", self.window_width), ("window_depth", self.window_depth)):
             if value is not None and value < self.wire.overall_diameter:
                 raise InvalidInputError(name, f"at least one wire diameter "
                                         f"({format_length(self.wire.overall_diameter)})", format_length(value))
@@ -118,7 +118,7 @@ class GappedCore(CoreLaw, Rewindable):
                 raise InvalidInputError("target", "either turns or a target with a known gap, not both", None)
             return self, request, {"mode": "given"}
         if self.mu_r is None:
-            raise InvalidInputError("mu", "the core's permeability, a known AL value, or a reading", None)
+            raise InvalidInputError("mu_r", "the core's permeability, a known AL value, or a reading", None)
         target, drive = request.target, request.drive
         if request.turns is not None and target is not None:
             core = dataclasses.replace(self, gap=self.gap_for_al(target / request.turns**2))
@@ -150,17 +150,17 @@ class GappedCore(CoreLaw, Rewindable):
         lg, and the root is found by bisection on ln lg.
         """
         if self.mu_r is None:
-            raise InvalidInputError("--mu", "the core's permeability (or --material) to compute a gap", None)
+            raise InvalidInputError("mu_r", "the core's permeability (or a material class) to compute a gap", None)
         ungapped = float(gapped_al(self.ae, self.le, 0.0, self.mu_r))
         if al >= ungapped:
             raise InfeasibleError(
                 f"AL {format_quantity(al, 'H')} per turn² is at or above the ungapped core's "
                 f"{format_quantity(ungapped, 'H')}: use more turns, or a core of higher permeability",
-                option="--target")
+                option="target")
         low, high = 1e-9, 0.5 * self.le
         if float(self.al_for_gap(high)) > al:
             raise InfeasibleError(f"even a {format_length(high)} gap leaves AL above "
-                                  f"{format_quantity(al, 'H')}: use fewer turns", option="--target")
+                                  f"{format_quantity(al, 'H')}: use fewer turns", option="target")
         for _ in range(200):
             middle = math.sqrt(low * high)
             if float(self.al_for_gap(middle)) > al:

@@ -77,24 +77,24 @@ class MultilayerCoil(Rewindable):
     _cache: dict = field(default_factory=dict, init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        positive(self.former_diameter, "--former", "a former diameter")
-        positive(self.width, "--width", "a winding width")
-        positive(self.max_depth, "--max-depth", "a winding depth")
+        positive(self.former_diameter, "former_diameter", "a former diameter")
+        positive(self.width, "width", "a winding width")
+        positive(self.max_depth, "max_depth", "a winding depth")
         if not (math.isfinite(self.packing) and 1.0 <= self.packing <= 2.0):
-            raise InvalidInputError("--packing", "a packing factor from 1 to 2", self.packing)
+            raise InvalidInputError("packing", "a packing factor from 1 to 2", self.packing)
         if not (math.isfinite(self.lead) and self.lead >= 0):
-            raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+            raise InvalidInputError("lead", "a lead allowance of zero or more", self.lead)
         if self.style not in get_args(LayerStyle):
-            raise InvalidInputError("--style", "one of " + ", ".join(get_args(LayerStyle)), self.style)
+            raise InvalidInputError("style", "one of " + ", ".join(get_args(LayerStyle)), self.style)
         if self.method not in get_args(MultilayerMethod):
-            raise InvalidInputError("--method", "one of " + ", ".join(get_args(MultilayerMethod)), self.method)
+            raise InvalidInputError("method", "one of " + ", ".join(get_args(MultilayerMethod)), self.method)
         needed = (2.0 if self.style == "staggered" else 1.0) * self.pitch
         if self.width < needed * (1 - 1e-9):
-            raise InvalidInputError("--width", f"a winding width of at least {format_length(needed)} "
+            raise InvalidInputError("width", f"a winding width of at least {format_length(needed)} "
                                     f"({'two turns' if self.style == 'staggered' else 'one turn'} of this wire)",
                                     format_length(self.width))
         if self.max_depth is not None and self.max_depth < self.wire.overall_diameter * (1 - 1e-9):
-            raise InvalidInputError("--max-depth", f"a depth of at least one wire diameter "
+            raise InvalidInputError("max_depth", f"a depth of at least one wire diameter "
                                     f"({format_length(self.wire.overall_diameter)})", format_length(self.max_depth))
 
     # geometry -----------------------------------------------------------------

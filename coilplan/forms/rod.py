@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from typing import ClassVar
 
 import numpy as np
 from scipy.constants import mu_0
@@ -74,6 +75,8 @@ class RodCoil(Rewindable):
 
     _pitch_field = "pitch"
     _length_field = "coil_length"
+    #: the field that stays unknown until readings set it (named when there are none)
+    permeability_field: ClassVar[str] = "mu_initial"
 
     @property
     def permeability_unknown(self) -> bool:
@@ -87,33 +90,33 @@ class RodCoil(Rewindable):
         return dataclasses.replace(self, mu_initial=float(mu))
 
     def __post_init__(self) -> None:
-        positive(self.rod_length, "--rod-length", "a rod length")
-        positive(self.rod_diameter, "--rod-diameter", "a rod diameter")
-        positive(self.pitch, "--pitch", "a pitch")
-        positive(self.coil_length, "--coil-length", "a winding length")
-        positive(self.max_length, "--max-length", "a usable winding length")
-        positive(self.former_diameter, "--former", "a former diameter")
+        positive(self.rod_length, "rod_length", "a rod length")
+        positive(self.rod_diameter, "rod_diameter", "a rod diameter")
+        positive(self.pitch, "pitch", "a pitch")
+        positive(self.coil_length, "coil_length", "a winding length")
+        positive(self.max_length, "max_length", "a usable winding length")
+        positive(self.former_diameter, "former_diameter", "a former diameter")
         if self.mu_initial is not None and not (math.isfinite(self.mu_initial) and self.mu_initial >= 1):
-            raise InvalidInputError("--mu", "a relative permeability of at least 1", self.mu_initial)
+            raise InvalidInputError("mu_initial", "a relative permeability of at least 1", self.mu_initial)
         if not math.isfinite(self.position):
-            raise InvalidInputError("--position", "a finite offset", self.position)
+            raise InvalidInputError("position", "a finite offset", self.position)
         if not (math.isfinite(self.lead) and self.lead >= 0):
-            raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+            raise InvalidInputError("lead", "a lead allowance of zero or more", self.lead)
         if self.former_diameter is not None and self.former_diameter < self.rod_diameter:
-            raise InvalidInputError("--former", f"a former at least as wide as the "
+            raise InvalidInputError("former_diameter", f"a former at least as wide as the "
                                     f"{format_length(self.rod_diameter)} rod", format_length(self.former_diameter))
         if self.pitch is not None and self.coil_length is not None:
-            raise InvalidInputError("--pitch", "either --pitch or --coil-length, not both", None)
+            raise InvalidInputError("pitch", "either a pitch or a winding length, not both", None)
         if self.pitch is not None and self.pitch < self.wire.overall_diameter * (1 - 1e-9):
-            raise InvalidInputError("--pitch", f"a pitch of at least the overall wire diameter "
+            raise InvalidInputError("pitch", f"a pitch of at least the overall wire diameter "
                                     f"{format_length(self.wire.overall_diameter)}", format_length(self.pitch))
         overall = self.wire.overall_diameter
         if self.usable_length() < overall * (1 - 1e-9):
-            option, what = ("--rod-length", "a rod") if self.max_length is None else ("--max-length", "a usable length")
-            raise InvalidInputError(option, f"{what} at least one wire diameter long ({format_length(overall)}), "
+            field, what = ("rod_length", "a rod") if self.max_length is None else ("max_length", "a usable length")
+            raise InvalidInputError(field, f"{what} at least one wire diameter long ({format_length(overall)}), "
                                     f"room for one turn", format_length(self.usable_length()))
         if self.coil_length is not None and self.coil_length > self.usable_length() * (1 + 1e-12):
-            raise InvalidInputError("--coil-length", f"a winding length within the usable "
+            raise InvalidInputError("coil_length", f"a winding length within the usable "
                                     f"{format_length(self.usable_length())}", format_length(self.coil_length))
 
     # geometry -----------------------------------------------------------------
@@ -176,7 +179,8 @@ class RodCoil(Rewindable):
             return "a single turn on this rod"
         where = "rod" if self.max_length is None else "usable length"
         return (f"{math.floor(turns + 1e-9)} turns at {format_length(float(self.pitch_at(1.0)))} pitch fill "
-                f"the {format_length(self.usable_length())} {where} (--max-length allows a longer former)")
+                f"the {format_length(self.usable_length())} {where} (a longer usable length, on a longer former, "
+                "holds more)")
 
     def winding_length(self, turns):
         turns = np.asarray(turns, dtype=float)

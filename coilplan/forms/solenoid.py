@@ -119,38 +119,38 @@ class Solenoid(Rewindable):
 
     def __post_init__(self) -> None:
         if not (math.isfinite(self.former_permittivity) and self.former_permittivity >= 1):
-            raise InvalidInputError("--former-permittivity", "a relative permittivity of at least 1",
+            raise InvalidInputError("former_permittivity", "a relative permittivity of at least 1",
                                     self.former_permittivity)
-        _positive(self.diameter, "--diameter", "a coil diameter")
-        _positive(self.pitch, "--pitch", "a pitch")
-        _positive(self.length, "--length", "a winding length")
-        _positive(self.max_length, "--max-length", "a usable former length")
+        _positive(self.diameter, "diameter", "a coil diameter")
+        _positive(self.pitch, "pitch", "a pitch")
+        _positive(self.length, "length", "a winding length")
+        _positive(self.max_length, "max_length", "a usable former length")
         if not (math.isfinite(self.lead) and self.lead >= 0):
-            raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+            raise InvalidInputError("lead", "a lead allowance of zero or more", self.lead)
         if self.method not in get_args(SolenoidMethod):
-            raise InvalidInputError("--method", "one of " + ", ".join(get_args(SolenoidMethod)),
+            raise InvalidInputError("method", "one of " + ", ".join(get_args(SolenoidMethod)),
                                     self.method)
         overall = self.wire.overall_diameter
         if self.pitch is not None and self.length is not None:
-            raise InvalidInputError("--pitch", "either --pitch or --length, not both", None)
+            raise InvalidInputError("pitch", "either a pitch or a winding length, not both", None)
         if self.pitch is not None and self.pitch < overall * (1 - 1e-9):
             raise InvalidInputError(
-                "--pitch", f"a pitch of at least the overall wire diameter "
+                "pitch", f"a pitch of at least the overall wire diameter "
                 f"{format_length(overall)} (turns cannot overlap)", format_length(self.pitch))
         if self.diameter <= overall:
-            raise InvalidInputError("--diameter", f"a coil diameter above the overall wire "
+            raise InvalidInputError("diameter", f"a coil diameter above the overall wire "
                                     f"diameter {format_length(overall)}",
                                     format_length(self.diameter))
         if self.length is not None and self.length < overall:
-            raise InvalidInputError("--length", f"a winding length of at least one wire diameter "
+            raise InvalidInputError("length", f"a winding length of at least one wire diameter "
                                     f"({format_length(overall)})", format_length(self.length))
         if (self.length is not None and self.max_length is not None
                 and self.length > self.max_length * (1 + 1e-12)):
-            raise InvalidInputError("--length", f"a winding length within the usable "
+            raise InvalidInputError("length", f"a winding length within the usable "
                                     f"{format_length(self.max_length)} of the former",
                                     format_length(self.length))
         if self.max_length is not None and self.max_length < overall:
-            raise InvalidInputError("--max-length", f"a usable length of at least one wire "
+            raise InvalidInputError("max_length", f"a usable length of at least one wire "
                                     f"diameter ({format_length(overall)})",
                                     format_length(self.max_length))
 
@@ -193,8 +193,8 @@ class Solenoid(Rewindable):
         pitch = float(self.pitch_at(1.0))
         turns = (LONGEST_WINDING - self.wire.overall_diameter) / pitch + 1.0
         return turns, (f"{math.floor(turns + 1e-9)} turns at {format_length(pitch)} pitch make a "
-                       f"{format_length(LONGEST_WINDING)} winding, the longest this tool plans (give --max-length "
-                       f"for the former's usable length)")
+                       f"{format_length(LONGEST_WINDING)} winding, the longest this tool plans (give the former's "
+                       f"usable length)")
 
     def limit_reason(self, turns: float, lowest: bool = False) -> str:
         if lowest:

@@ -66,21 +66,21 @@ class FlatSpiral(Rewindable):
     _cache: dict = field(default_factory=dict, init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        positive(self.inner_diameter, "--inner", "an inner diameter")
-        positive(self.outer_diameter, "--outer", "an outer diameter")
+        positive(self.inner_diameter, "inner_diameter", "an inner diameter")
+        positive(self.outer_diameter, "outer_diameter", "an outer diameter")
         if not (math.isfinite(self.spacing) and self.spacing >= 0):
-            raise InvalidInputError("--spacing", "a gap between turns of zero or more", self.spacing)
+            raise InvalidInputError("spacing", "a gap between turns of zero or more", self.spacing)
         if not (math.isfinite(self.lead) and self.lead >= 0):
-            raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+            raise InvalidInputError("lead", "a lead allowance of zero or more", self.lead)
         if self.method not in get_args(SpiralMethod):
-            raise InvalidInputError("--method", "one of " + ", ".join(get_args(SpiralMethod)), self.method)
+            raise InvalidInputError("method", "one of " + ", ".join(get_args(SpiralMethod)), self.method)
         if self.radial_pitch <= self.wire.diameter:
-            raise InvalidInputError("--spacing", "a gap between turns of bare wire (touching bare turns short "
+            raise InvalidInputError("spacing", "a gap between turns of bare wire (touching bare turns short "
                                     "out)", format_length(self.spacing))
         if (self.outer_diameter is not None
                 and self.outer_diameter < self.inner_diameter + 2 * self.wire.overall_diameter * (1 - 1e-9)):
             least = format_length(self.inner_diameter + 2 * self.wire.overall_diameter)
-            raise InvalidInputError("--outer", f"an outer diameter of at least the inner diameter plus two wire "
+            raise InvalidInputError("outer_diameter", f"an outer diameter of at least the inner diameter plus two wire "
                                     f"diameters ({least})", format_length(self.outer_diameter))
 
     # geometry -----------------------------------------------------------------

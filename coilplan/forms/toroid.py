@@ -75,27 +75,27 @@ class Toroid(CoreLaw, Rewindable):
     _layer_table: tuple = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        positive(self.inner_diameter, "--id", "an inner diameter")
-        positive(self.outer_diameter, "--od", "an outer diameter")
-        positive(self.height, "--height", "a core height")
-        positive(self.al, "--al", "an AL value")
-        positive(self.mu_r, "--mu", "a relative permeability")
+        positive(self.inner_diameter, "inner_diameter", "an inner diameter")
+        positive(self.outer_diameter, "outer_diameter", "an outer diameter")
+        positive(self.height, "height", "a core height")
+        positive(self.al, "al", "an AL value")
+        positive(self.mu_r, "mu_r", "a relative permeability")
         if self.outer_diameter <= self.inner_diameter:
-            raise InvalidInputError("--od", f"an outer diameter above the inner diameter "
+            raise InvalidInputError("outer_diameter", f"an outer diameter above the inner diameter "
                                     f"{format_length(self.inner_diameter)}", format_length(self.outer_diameter))
         if self.al is None and self.mu_r is not None:
             parameters = self.effective_parameters()
             object.__setattr__(self, "al", float(al_value(self.mu_r, parameters["ae"], parameters["le"])))
         if not (math.isfinite(self.lead) and self.lead >= 0):
-            raise InvalidInputError("--lead", "a lead allowance of zero or more", self.lead)
+            raise InvalidInputError("lead", "a lead allowance of zero or more", self.lead)
         if not (math.isfinite(self.chamfer) and 0 <= self.chamfer
                 < min(self.height, (self.outer_diameter - self.inner_diameter) / 2) / 2):
-            raise InvalidInputError("--chamfer", "a chamfer of zero or more, under half the height and the "
+            raise InvalidInputError("chamfer", "a chamfer of zero or more, under half the height and the "
                                     "radial width", format_length(self.chamfer))
         if self.layers not in ("one", "many"):
-            raise InvalidInputError("--layers", "one or many", self.layers)
+            raise InvalidInputError("layers", "one or many", self.layers)
         if math.pi * (self.inner_diameter - self.wire.overall_diameter) < self.wire.overall_diameter:
-            raise InvalidInputError("--wire", f"a wire that passes through the "
+            raise InvalidInputError("wire", f"a wire that passes through the "
                                     f"{format_length(self.inner_diameter)} hole at least once",
                                     self.wire.label)
         object.__setattr__(self, "_layer_table", self._layers())
@@ -157,7 +157,7 @@ class Toroid(CoreLaw, Rewindable):
             return "a single turn on this core"
         if self.layers == "one":
             return (f"one layer on the {format_length(self.inner_diameter)} inside holds "
-                    f"{self.turns_one_layer()} turns of this wire (--layers many allows more)")
+                    f"{self.turns_one_layer()} turns of this wire (a winding of many layers holds more)")
         return (f"{int(self.max_turns())} turns of this wire fill the window to the centre "
                 f"in {len(self._layer_table[0])} layers")
 

@@ -1,10 +1,11 @@
 """The kit planner: many coils at once from the formers, toroids, ferrite rods, gapped cores, bobbins and
 wire reels on the shelf.
 
-``plan`` reads and validates the plan file (pydantic), ``stock`` builds each stock item's coil form,
-``assign`` evaluates every coil on every stock item with every wire, ``optimise`` shares out the stock
-and the wire optimally under the counts and the reel lengths, ``outputs`` renders the table, the JSON
-and the bill of materials, ``cards`` the winding cards. Import it only from the ``kit`` command
+``plan`` reads and validates the plan file (pydantic), ``keys`` names the library's fields as the
+plan's keys, ``stock`` builds each stock item's coil form, ``assign`` evaluates every coil on every
+stock item with every wire, ``optimise`` shares out the stock and the wire optimally under the counts
+and the reel lengths, ``outputs`` renders the table, the JSON and the bill of materials, ``cards`` the
+winding cards. Import it only from the ``kit`` command
 (pydantic stays out of the other commands' start-up).
 """
 

@@ -44,7 +44,16 @@ import tomllib
 from pathlib import Path
 from typing import Annotated, Literal
 
-from pydantic import AfterValidator, BaseModel, BeforeValidator, ConfigDict, Field, ValidationError, model_validator
+from pydantic import (
+    AfterValidator,
+    BaseModel,
+    BeforeValidator,
+    ConfigDict,
+    Field,
+    PrivateAttr,
+    ValidationError,
+    model_validator,
+)
 
 from coilplan._validation import first_problem
 from coilplan.errors import InvalidInputError
@@ -208,7 +217,7 @@ def _material_name(name: str) -> str:
 def _wire_text(text: str) -> str:
     from coilplan.wire import parse_wire
 
-    _checked(parse_wire, text, option="wire")
+    _checked(parse_wire, text)
     return text
 
 
@@ -439,7 +448,7 @@ class ReelSpec(_Record):
 
 
 class Plan(_Record):
-    """The whole plan file, validated."""
+    """The whole plan file, validated; it keeps its file name and text to place later problems (:meth:`problem_at`)."""
 
     settings: Settings = Settings()
     coil: tuple[CoilSpec, ...] = Field(min_length=1)
@@ -449,6 +458,8 @@ class Plan(_Record):
     gapped: tuple[GappedSpec, ...] = ()
     bobbin: tuple[BobbinSpec, ...] = ()
     reel: tuple[ReelSpec, ...] = Field(min_length=1)
+    _file: str = PrivateAttr(default="plan")
+    _text: str = PrivateAttr(default="")
 
     @model_validator(mode="after")
     def _names_unique(self) -> Plan:
@@ -464,6 +475,18 @@ class Plan(_Record):
                                  f"split it into smaller plans")
         return self
 
+    def problem_at(self, table: str, index: int | None, key: str, problem: str) -> PlanFileError:
+        """A problem found after validation, placed as the file's own are: file, line, entry and key.
+
+        ``key`` is a key of the ``index``-th (0-based) ``[[table]]`` entry, or ``"settings.name"`` for a setting.
+        """
+        where, _, name = key.rpartition(".")
+        entries = getattr(self, table, ())
+        label = table if index is None else f"{table}[{index + 1}]"
+        if index is not None and getattr(entries[index], "name", None):
+            label += f" {entries[index].name!r}"
+        line = _line_of(self._text, where or table, None if where else index, name)
+        return PlanFileError(self._file, f"{label}: {key}: {problem}", line)
 
 # --- reading the file --------------------------------------------------------------------------
 
@@ -554,9 +577,11 @@ def parse_plan(text: str, file: str = "plan") -> Plan:
         reason = re.sub(r"\s*\(at line \d+, column \d+\)", "", str(error))
         raise PlanFileError(file, f"not a TOML plan: {reason[0].lower()}{reason[1:]}", line) from None
     try:
-        return Plan.model_validate(document)
+        plan = Plan.model_validate(document)
     except ValidationError as error:
         raise _problem(file, text, document, error) from None
+    plan._file, plan._text = str(file), text
+    return plan
 
 
 def load_plan(path) -> Plan:

@@ -32,6 +32,7 @@ import numpy as np
 from coilplan.calibrate import ScaledForm
 from coilplan.errors import InvalidInputError
 from coilplan.forms import GappedCore, MultilayerCoil, RodCoil, Solenoid, Toroid
+from coilplan.kit.keys import in_plan_words
 from coilplan.kit.plan import STOCK_FORMS
 from coilplan.quantities import format_length, format_quantity
 from coilplan.wire import Wire, parse_wire
@@ -128,23 +129,28 @@ def rod_scale(spec, settings) -> float | None:
     from coilplan.calibrate import calibrate
     from coilplan.request import Reading, Request
 
-    wire = parse_wire(spec.measured_wire, grade=spec.measured_grade, option="measured_wire")
+    wire = parse_wire(spec.measured_wire, grade=spec.measured_grade)
     request = Request(readings=tuple(Reading(value, turns) for value, turns in spec.measured),
                       meter_frequency=settings.meter_frequency)
-    try:
-        form, _ = calibrate(_rod(spec, wire, settings), request)
-    except InvalidInputError as error:  # name the plan's own setting
-        where = "settings.meter_frequency" if error.option in ("meter_frequency", "--meter-freq") else "measured"
-        raise InvalidInputError(where, error.expected, error.got) from None
+    form, _ = calibrate(_rod(spec, wire, settings), request)
     return form.factor
 
 
 def stock_items(plan) -> list[StockItem]:
-    """Every stock line of the plan, table by table in :data:`~coilplan.kit.plan.STOCK_FORMS` order."""
+    """Every stock line of the plan, table by table in :data:`~coilplan.kit.plan.STOCK_FORMS` order.
+
+    Raises
+    ------
+    PlanFileError
+        A rod's readings that cannot calibrate it, naming the plan's file, line, entry and key.
+    """
     items = []
     for kind in STOCK_FORMS:
         for index, spec in enumerate(getattr(plan, kind)):
-            scale = rod_scale(spec, plan.settings) if kind == "rod" else None
+            try:
+                scale = rod_scale(spec, plan.settings) if kind == "rod" else None
+            except InvalidInputError as error:  # the library's field as the plan's key
+                raise in_plan_words(error, plan, kind, index) from None
             items.append(StockItem(kind, index, _label(kind, index, spec), spec.count, spec, scale))
     return items
 
@@ -155,7 +161,7 @@ def plan_wires(plan) -> list[tuple[str, str, Wire]]:
     for reel in plan.reel:
         key = (reel.wire, reel.grade)
         if key not in seen:
-            seen[key] = parse_wire(reel.wire, grade=reel.grade, option="wire")
+            seen[key] = parse_wire(reel.wire, grade=reel.grade)
     return [(text, grade, wire) for (text, grade), wire in seen.items()]
 
 

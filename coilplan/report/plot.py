@@ -27,7 +27,7 @@ _NO_DATES = {"png": {"Software": None}, "svg": {"Date": None}, "pdf": {"Creation
 _SALT = "coilplan-plot"
 
 
-def plot_format(path, option: str = "--plot") -> str:
+def plot_format(path, option: str = "plot") -> str:
     """The format for a plot file from its name's ending (``.png``, ``.svg`` or ``.pdf``).
 
     Examples
@@ -53,7 +53,7 @@ def _matplotlib():
         from matplotlib.backends.backend_agg import FigureCanvasAgg
         from matplotlib.figure import Figure
     except ImportError:
-        raise InvalidInputError("--plot", 'matplotlib, which is not installed: pip install "coilplan[plot]"',
+        raise InvalidInputError("plot", 'matplotlib, which is not installed: pip install "coilplan[plot]"',
                                 None) from None
     return rc_context, FigureCanvasAgg, Figure
 
@@ -86,11 +86,12 @@ def impedance_plot(*, sweep: dict, operating_frequency: float | None, fmt: str, 
     srf = float(sweep["srf_Hz"]) if sweep.get("srf_Hz") is not None else math.nan
     frequency = np.asarray(sweep["frequency_Hz"], dtype=float) / 1e6
     if not (math.isfinite(srf) and srf > 0 and frequency.size and np.all(np.isfinite(frequency))):
-        raise InvalidInputError("--plot", "a coil whose self-resonance is known, to draw |Z| and Q around it "
-                                "(no self-capacitance is estimated for this winding: give --self-capacitance)", None)
+        raise InvalidInputError("plot", "a coil whose self-resonance is known, to draw |Z| and Q around it "
+                                "(no self-capacitance is estimated for this winding: give the coil's "
+                                "self-capacitance)", None)
     rc_context, FigureCanvasAgg, Figure = _matplotlib()
     if fmt not in _NO_DATES:
-        raise InvalidInputError("--plot", "a format png, svg or pdf", fmt)
+        raise InvalidInputError("plot", "a format png, svg or pdf", fmt)
     figure = Figure(figsize=(6.4, 5.6), layout="constrained")
     FigureCanvasAgg(figure)
     top, bottom = figure.subplots(2, 1, sharex=True)
@@ -145,7 +146,7 @@ def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float
     """
     rc_context, FigureCanvasAgg, Figure = _matplotlib()
     if fmt not in _NO_DATES:
-        raise InvalidInputError("--plot", "a format png, svg or pdf", fmt)
+        raise InvalidInputError("plot", "a format png, svg or pdf", fmt)
     counts = [count for _, count in readings] + [turns]
     low, high = min(counts), max(counts)
     margin = max(1.0, 0.08 * (high - low))

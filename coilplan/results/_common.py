@@ -70,7 +70,7 @@ def check_fits(form, turns: int) -> None:
         whole = math.floor(limit + 1e-9)
         largest = float(form.inductance(float(whole))) if whole >= 1 else math.nan
         raise InfeasibleError(f"{turns} turns do not fit: {form.limit_reason(limit)} "
-                              f"(at most {format_quantity(largest, 'H')})", option="--turns")
+                              f"(at most {format_quantity(largest, 'H')})", option="turns")
 
 
 def wire_fields(wire) -> dict:

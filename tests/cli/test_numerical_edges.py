@@ -337,11 +337,11 @@ def test_edge_gets_a_clear_answer(arguments, code, words):
 
 def test_plot_without_a_self_resonance_is_refused():
     """A sweep with no finite self-resonance (a winding with no self-capacitance estimate gives SRF = ∞ and
-    frequencies of NaN) is refused with a --plot message, not drawn with an 'inf MHz' label."""
+    frequencies of NaN) is refused naming the plot, not drawn with an 'inf MHz' label."""
     from coilplan.errors import InvalidInputError
     from coilplan.report.plot import impedance_plot
 
     nothing = [math.nan] * 4
     sweep = {"frequency_Hz": nothing, "impedance_ohm": nothing, "q": nothing, "srf_Hz": math.inf}
-    with pytest.raises(InvalidInputError, match=r"^--plot: expected a coil whose self-resonance is known"):
+    with pytest.raises(InvalidInputError, match=r"^plot: expected a coil whose self-resonance is known"):
         impedance_plot(sweep=sweep, operating_frequency=1e6, fmt="svg")
