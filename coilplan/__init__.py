@@ -17,7 +17,6 @@ __version__ = "0.1.0"
 # public name -> the module that defines it
 _WHERE = {
     "ClosedCore": "coilplan.forms",
-    "ClosedCoreAnswer": "coilplan.rewind",
     "CoilForm": "coilplan.forms",
     "CoilplanError": "coilplan.errors",
     "CoilplanWarning": "coilplan.errors",
@@ -48,7 +47,6 @@ _WHERE = {
     "Wire": "coilplan.wire",
     "all_materials": "coilplan.materials",
     "awg_diameter": "coilplan.wire",
-    "closed_core_answer": "coilplan.rewind",
     "closed_core_fit": "coilplan.rewind",
     "copper_resistivity": "coilplan.wire",
     "count_turns": "coilplan.turn_count",
