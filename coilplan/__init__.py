@@ -64,6 +64,7 @@ _WHERE = {
     "parse_wire": "coilplan.wire",
     "plan_kit": "coilplan.kit",
     "record_reading": "coilplan.session",
+    "record_strike": "coilplan.session",
     "rewind_fields": "coilplan.rewind",
     "rod_result": "coilplan.results",
     "saturation_check": "coilplan.saturation",

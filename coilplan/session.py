@@ -71,6 +71,7 @@ from coilplan.forms import ClosedCore
 from coilplan.quantities import format_quantity
 from coilplan.request import DEFAULT_TOLERANCE, Request
 from coilplan.request import Reading as MeterReading
+from coilplan.rewind import low_frequency_readings
 from coilplan.wire import parse_wire
 
 __all__ = [
@@ -519,8 +520,6 @@ def _remeasure_notices(points: Sequence[FitPoint]) -> list[str]:
 
 def _target_notices(log: TrimLog, latest: FitPoint, fields: dict, conditions) -> list[str]:
     """"Stop" when the coil as it is now reads within the meter tolerance of the target (both at low frequency)."""
-    from coilplan.rewind import low_frequency_readings
-
     value = low_frequency_readings([(latest.inductance, latest.turns)], conditions)[0][0]
     target = fields["target_low_frequency_H"]
     if abs(value - target) > conditions.tolerance * target:
