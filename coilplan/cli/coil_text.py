@@ -69,6 +69,9 @@ class CoilTextError(InvalidInputError):
     """
 
     def __init__(self, problem: str):
+        from coilplan.report.text import printable
+
+        problem = printable(problem)  # it may quote the description's own text (typed, or from a log file)
         super().__init__("--coil", problem, None)
         self.problem = problem
 

@@ -9,7 +9,6 @@ The coil is a closed core of unknown geometry (the default), or any form command
 from __future__ import annotations
 
 import contextlib
-import unicodedata
 from pathlib import Path
 
 import click
@@ -20,7 +19,7 @@ from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import CoilplanWarning, InvalidInputError
 from coilplan.files import WriteInterrupted
 from coilplan.quantities import format_quantity
-from coilplan.report.text import aligned_rows, bullet_lines
+from coilplan.report.text import aligned_rows, bullet_lines, printable
 from coilplan.report.turns_rows import henry, rewind_rows
 from coilplan.request import DEFAULT_TOLERANCE
 from coilplan.rewind import low_frequency_readings
@@ -312,10 +311,8 @@ def _report(command, file, log, step, inputs, warnings_, as_json, plot_path, sta
 
 
 def _shown(text: str | None) -> str | None:
-    """Text from the log as one printable line: control characters (a newline, an escape) shown escaped."""
-    if text is None:
-        return None
-    return "".join(repr(char)[1:-1] if unicodedata.category(char).startswith("C") else char for char in text)
+    """Text from the log as one printable line (:func:`coilplan.report.text.printable`)."""
+    return None if text is None else printable(text)
 
 
 def _when(stamp: str) -> str:

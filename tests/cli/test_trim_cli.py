@@ -331,6 +331,7 @@ def test_toroid_log_fits_al_from_the_readings(tmp_path):
     pytest.param("choke --turns 3", "a form command first", id="not-a-form-command"),
     pytest.param("", "a form command and its options", id="empty"),
     pytest.param("solenoid '25mm", "shell words", id="unclosed-quote"),
+    pytest.param("solenoid --form\x1br 25mm --wire 0.5mm", "No such option '--form\\x1br'", id="escape-shown-escaped"),
 ])
 def test_coil_text_refused_on_one_line_and_nothing_written(tmp_path, coil, fragment):
     """A --coil text its command refuses, or one giving what the log sets itself: exit 2, one line naming it."""
