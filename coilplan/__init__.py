@@ -19,7 +19,6 @@ __version__ = "0.1.0"
 _WHERE = {
     "Answer": "coilplan.answer",
     "ClosedCore": "coilplan.forms",
-    "ClosedCoreAnswer": "coilplan.rewind",
     "CoilForm": "coilplan.forms",
     "CoilplanError": "coilplan.errors",
     "CoilplanWarning": "coilplan.errors",
@@ -54,7 +53,6 @@ _WHERE = {
     "Wire": "coilplan.wire",
     "all_materials": "coilplan.materials",
     "awg_diameter": "coilplan.wire",
-    "closed_core_answer": "coilplan.rewind",
     "closed_core_fit": "coilplan.rewind",
     "copper_resistivity": "coilplan.wire",
     "count_turns": "coilplan.turn_count",
@@ -74,6 +72,7 @@ _WHERE = {
     "parse_wire": "coilplan.wire",
     "plan_kit": "coilplan.kit",
     "record_reading": "coilplan.session",
+    "record_strike": "coilplan.session",
     "rewind_fields": "coilplan.rewind",
     "rod_result": "coilplan.results",
     "saturation_check": "coilplan.saturation",

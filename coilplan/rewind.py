@@ -36,13 +36,11 @@ from coilplan.solve import solve_turns
 
 __all__ = [
     "DEFAULT_TOLERANCE",
-    "ClosedCoreAnswer",
     "SRF_FRACTION",
     "Conditions",
     "Fit",
     "apparent_inductance",
     "check_readings",
-    "closed_core_answer",
     "closed_core_fit",
     "low_frequency_inductance",
     "low_frequency_readings",
@@ -502,57 +500,3 @@ def scale_fit(readings, model) -> Fit:
     factor = float(np.sum(model / inductance) / np.sum(model**2 / inductance**2))
     residuals = (inductance - factor * model) / inductance
     return Fit("scale", factor, tuple(float(r) for r in residuals), _scatter(residuals))
-
-
-@dataclass(frozen=True)
-class ClosedCoreAnswer:
-    """The rewind of a coil on a closed core from readings alone (``coilplan rewind``, the trim log).
-
-    Attributes
-    ----------
-    fields : dict
-        :func:`rewind_fields` plus ``al_H``, ``offset_H`` and, with a wire and a turn
-        length, ``resistance_change_ohm``.
-    warnings : tuple of str
-    notices : tuple of str
-        What was decided about the fit (a lead offset dropped or not yet fitted).
-    fit : Fit
-    form : ClosedCore
-    """
-
-    fields: dict
-    warnings: tuple[str, ...]
-    notices: tuple[str, ...]
-    fit: Fit
-    form: object
-
-
-def closed_core_answer(readings, target: float, conditions: Conditions, *, offset: bool = False,
-                       turn_length: float | None = None, wire=None) -> ClosedCoreAnswer:
-    """Fit L = AL·N² (+ L0) to the readings and answer the turns to add or remove.
-
-    A lead offset is fitted from the second reading on. Leads add inductance in series,
-    so a fitted L0 below zero is the readings' scatter, not the leads: it is left out
-    and the plain law fitted, with a notice.
-    """
-    from coilplan.forms.closed import ClosedCore  # forms import nothing of rewind; kept local all the same
-
-    readings = list(readings)
-    low = low_frequency_readings(readings, conditions)
-    notices = []
-    fit_offset = offset and len(readings) >= 2
-    if offset and not fit_offset:
-        notices.append("the lead offset is fitted from the second reading on; until then L = AL·N²")
-    fit = closed_core_fit(low, offset=fit_offset)
-    if fit.extra.get("offset_H", 0.0) < 0:
-        negative = fit.extra["offset_H"]
-        fit = closed_core_fit(low)
-        notices.append(f"the lead offset fitted below zero ({format_quantity(negative, 'H')}), which leads in "
-                       f"series cannot be: it is left out and L = AL·N² is fitted to the readings")
-    form = ClosedCore(al=fit.value, offset=fit.extra.get("offset_H", 0.0), turn_length=turn_length, wire=wire)
-    fields, warnings_ = rewind_fields(form, target, readings, fit, conditions)
-    fields["al_H"] = fit.value
-    fields["offset_H"] = form.offset
-    if wire is not None and turn_length is not None:
-        fields["resistance_change_ohm"] = float(form.resistance(fields["turns"]) - form.resistance(fields["turns_now"]))
-    return ClosedCoreAnswer(fields, tuple(warnings_), tuple(notices), fit, form)

@@ -1,34 +1,52 @@
 r"""The trim log: one JSON file per coil, the readings taken while it is trimmed toward its target.
 
-A coil is trimmed in steps: measure, remove (or add) turns, measure again. The log
-keeps every reading with its time and a note, and after each one the closed-core
-model is refitted to all of them (:func:`coilplan.rewind.closed_core_fit`) and the
-next step is worked out by :func:`coilplan.rewind.rewind_fields`, the one place
-turns to add or remove are computed:
+A coil is trimmed in steps: measure, remove (or add) turns, measure again. The log keeps every reading
+with its time and a note, and after each one the coil's model is refitted to all of them and the next
+step worked out by :func:`coilplan.pipeline.design`, the one pipeline every command goes through: the log
+builds the uncalibrated form and a :class:`~coilplan.request.Request` (its target, meter and operating
+conditions, its readings) and reads the answer; it fits nothing and chooses no turns itself.
 
-.. math::
+The coil is either
 
-    L = A_L N^2 \;(+\, L_0)
+* a **closed core of unknown geometry** (``"model": "closed-core"``, the default): the bare law
+  :class:`~coilplan.forms.ClosedCore`,
 
-(the AL value as IEC 60205 defines it, inductance per turn squared; L0 a fixed
-series part for the leads, fitted with ``offset`` from two readings on).
+  .. math::
 
-The file is a versioned document (``"schema": "coilplan-trim-log"``, ``"version": 1``),
-validated on load; a file that does not validate is refused with its name and what
-is wrong, and never changed. Every write goes to a temporary file in the same
-folder, is flushed and synced to disk, and then replaces the log in one step
-(``os.replace``), so a crash leaves either the old log or the new one, never half
-of one.
+      L = A_L N^2 \;(+\, L_0)
 
-=====================  =====================  ==========================================
-file field             Python                 meaning
-=====================  =====================  ==========================================
-``target_H``           ``TrimLog.target_H``   inductance wanted, H (as read at the
-                                              operating frequency when one is given)
-``tolerance``          ``Conditions``         meter accuracy per reading, relative
-``readings[i]``        :class:`Reading`       one reading: inductance, turns, time, note
-``coil.model``         ``"closed-core"``      the law fitted (the only one for now)
-=====================  =====================  ==========================================
+  (the AL value as IEC 60205 defines it, docs/methods.md §8; L0 a fixed series part for the leads,
+  fitted with ``offset`` from two turn counts on, docs/methods.md §20), or
+* **a form command's coil** (``"model": "form"``): the command's name and its arguments, e.g.
+  ``solenoid --former 25mm --wire 0.5mm``, read by that command's own parser and ``form_from`` at every
+  refit (:mod:`coilplan.cli.coil_text`), so the log answers exactly as the command would with the same
+  ``--measured`` readings.
+
+Two readings at the same turn count are a **re-measure**: both stay in the log, and the fit sees their
+mean, one point per turn count (a notice says so). A mistyped reading is **struck out**
+(:func:`strike_reading`): it stays in the file, marked with the time and the reason, and is left out of
+the fit.
+
+The file is a versioned document (``"schema": "coilplan-trim-log"``, ``"version": 2``), validated on
+load; a file that does not validate is refused with its name and what is wrong, and never changed.
+Version-1 logs (closed cores, one reading per turn count, nothing struck) are read as they are and
+written as version 2 when next changed. Every write goes to a temporary file in the same folder, is
+flushed and synced to disk, and then replaces the log in one step (``os.replace``), so a crash leaves
+either the old log or the new one, never half of one.
+
+=====================  =======================  ==========================================
+file field             Python                   meaning
+=====================  =======================  ==========================================
+``target_H``           ``TrimLog.target_H``     inductance wanted, H (as read at the
+                                                operating frequency when one is given)
+``tolerance``          ``TrimLog.tolerance``    meter accuracy per reading, relative
+``readings[i]``        :class:`Reading`         one reading: inductance, turns, time, note,
+                                                and ``struck`` (when and why) if struck out
+``coil``               :class:`ClosedCoreCoil`  ``"model": "closed-core"``: name, ``offset``,
+                                                ``turn_length_m``, ``wire``
+``coil``               :class:`FormCoil`        ``"model": "form"``: name, ``command``,
+                                                ``arguments`` (a form command's own options)
+=====================  =======================  ==========================================
 """
 
 from __future__ import annotations
@@ -36,47 +54,58 @@ from __future__ import annotations
 import itertools
 import json
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 from datetime import UTC, datetime
 from pathlib import Path
+from statistics import fmean
 from typing import Annotated, Literal
 
 import numpy as np
-from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator, model_validator
+from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
 
 from coilplan._validation import first_problem
 from coilplan.errors import InvalidInputError
 from coilplan.files import FileWriteError, write_atomically
 from coilplan.forms import ClosedCore
 from coilplan.quantities import format_quantity
-from coilplan.rewind import DEFAULT_TOLERANCE, Conditions, Fit, closed_core_answer, low_frequency_readings
+from coilplan.request import DEFAULT_TOLERANCE, Request
+from coilplan.request import Reading as MeterReading
+from coilplan.rewind import low_frequency_readings
 from coilplan.wire import parse_wire
 
 __all__ = [
     "SCHEMA",
     "VERSION",
+    "ClosedCoreCoil",
     "Coil",
+    "FitPoint",
+    "FormCoil",
     "LogExistsError",
     "LogFileError",
     "LogWriteError",
     "Reading",
+    "Struck",
     "TrimLog",
     "TrimStep",
     "add_reading",
-    "conditions_of",
+    "coil_of",
     "evaluate",
+    "fit_points",
     "load_log",
     "new_log",
     "record_reading",
+    "record_strike",
     "save_log",
     "start_log",
+    "strike_reading",
     "write_atomically",
 ]
 
 #: The name every trim log carries in its ``schema`` field.
 SCHEMA = "coilplan-trim-log"
 #: The newest log version this coilplan reads and the one it writes.
-VERSION = 1
+VERSION = 2
 
 PositiveFinite = Annotated[float, Field(gt=0, allow_inf_nan=False)]
 
@@ -113,8 +142,8 @@ class _Record(BaseModel):
     model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
 
 
-class Coil(_Record):
-    """What the log says about the coil: a name, the law fitted, and what the wire change needs."""
+class ClosedCoreCoil(_Record):
+    """A closed core of unknown geometry: a name, the lead offset, and what the wire change needs."""
 
     name: str | None = None
     model: Literal["closed-core"] = "closed-core"
@@ -132,9 +161,39 @@ class Coil(_Record):
                 raise ValueError(f"expected {error.expected}") from None
         return text
 
+    @property
+    def text(self) -> str:
+        return "closed core"
+
+
+class FormCoil(_Record):
+    """A form command's coil: the command's name and its arguments, e.g. ``solenoid --former 25mm --wire 0.5mm``."""
+
+    name: str | None = None
+    model: Literal["form"] = "form"
+    command: str
+    arguments: tuple[str, ...] = ()
+
+    @property
+    def text(self) -> str:
+        import shlex
+
+        return shlex.join([self.command, *self.arguments])
+
+
+#: What the log says about the coil (told apart by ``model``).
+Coil = Annotated[ClosedCoreCoil | FormCoil, Field(discriminator="model")]
+
+
+class Struck(_Record):
+    """When a reading was struck out, and why."""
+
+    time: datetime
+    why: str | None = None
+
 
 class Reading(_Record):
-    """One reading as the meter showed it: inductance at a whole number of turns, when, and a note."""
+    """One reading as the meter showed it: inductance at a whole number of turns, when, a note; struck or not."""
 
     # the unit stays in the field name, as in the --json keys; hence the N815 (mixedCase) exemptions
 
@@ -142,15 +201,16 @@ class Reading(_Record):
     turns: Annotated[int, Field(ge=1)]
     time: datetime
     note: str | None = None
+    struck: Struck | None = None
 
 
 class TrimLog(_Record):
     """The whole log of one coil (the JSON file's content, validated)."""
 
     schema_: Literal["coilplan-trim-log"] = Field(SCHEMA, alias="schema")
-    version: Literal[1] = VERSION
+    version: Literal[1, 2] = VERSION
     created: datetime
-    coil: Coil = Coil()
+    coil: Coil = ClosedCoreCoil()
     target_H: PositiveFinite  # noqa: N815
     operating_frequency_Hz: PositiveFinite | None = None  # noqa: N815
     meter_frequency_Hz: PositiveFinite | None = None  # noqa: N815
@@ -159,113 +219,244 @@ class TrimLog(_Record):
     self_capacitance_F: PositiveFinite | None = None  # noqa: N815
     readings: tuple[Reading, ...] = ()
 
-    @model_validator(mode="after")
-    def _one_reading_per_turn_count(self) -> TrimLog:
-        counts = [reading.turns for reading in self.readings]
-        repeated = sorted({count for count in counts if counts.count(count) > 1})
-        if repeated:
-            raise ValueError(f"readings: one reading per turn count; repeated: {', '.join(map(str, repeated))}")
-        return self
+
+@dataclass(frozen=True)
+class FitPoint:
+    """One point the fit sees: the mean of the readings (not struck out) at one turn count.
+
+    Attributes
+    ----------
+    inductance : float
+        H, the mean of the readings at ``turns``, as the meter showed them.
+    turns : int
+    numbers : tuple of int
+        The log's numbers (from 1) of the readings averaged into it.
+    """
+
+    inductance: float
+    turns: int
+    numbers: tuple[int, ...]
 
 
 @dataclass(frozen=True)
 class TrimStep:
-    """The refit after the latest reading and the next step.
+    """The refit after the latest reading and the next step: what :func:`coilplan.pipeline.design` answered.
 
     Attributes
     ----------
     fields : dict
-        :func:`coilplan.rewind.rewind_fields` (``turns_now``, ``turns``, ``turns_change``,
-        ``turns_range`` ...) plus ``al_H``, ``offset_H`` and ``resistance_change_ohm`` where known.
+        The answer's figures: :func:`coilplan.rewind.rewind_fields` (``turns_now``, ``turns``,
+        ``turns_change``, ``turns_range`` ...) and the form's own (``al_H``, ``offset_H`` and
+        ``resistance_change_ohm`` for a closed core).
     warnings : tuple of str
-        The rewind's own warnings (a reading far off the fitted curve, frequency, assumed tolerance).
+        The answer's warnings (a reading far off the fitted curve, frequency, assumed tolerance).
     notices : tuple of str
-        What the log itself notices: inductance moving against the turns, the target reached.
+        What the fit decided (a lead offset left out), and what the log itself notices: inductance moving
+        against the turns, re-measures averaged, the target reached.
     fit : Fit
-    form : ClosedCore
+        The calibration of the model to the points.
+    form : CoilForm
         The calibrated form.
+    cautions : tuple of str
+        The answer's safety cautions.
+    points : tuple of FitPoint
+        The readings as the fit saw them, the coil as it is now last.
+    conditions : Conditions
+        How the readings were taken (the self-capacitance used to correct them, given or estimated).
     """
 
     fields: dict
     warnings: tuple[str, ...]
     notices: tuple[str, ...]
-    fit: Fit
-    form: ClosedCore
+    fit: object
+    form: object
+    cautions: tuple[str, ...] = ()
+    points: tuple[FitPoint, ...] = ()
+    conditions: object = None
 
 
 def _now() -> datetime:
     return datetime.now(UTC).replace(microsecond=0)
 
 
+def _validation_error(error: ValidationError) -> InvalidInputError:
+    item = error.errors(include_url=False)[0]
+    return InvalidInputError(_where(item["loc"]), item["msg"].lower(), item.get("input"))
+
+
 def new_log(target: float, *, name: str | None = None, offset: bool = False, turn_length: float | None = None,
-            wire: str | None = None, operating_frequency: float | None = None,
-            meter_frequency: float | None = None, tolerance: float | None = None,
-            self_capacitance: float | None = None, created: datetime | None = None) -> TrimLog:
+            wire: str | None = None, command: str | None = None, arguments: Sequence[str] = (),
+            operating_frequency: float | None = None, meter_frequency: float | None = None,
+            tolerance: float | None = None, self_capacitance: float | None = None,
+            created: datetime | None = None) -> TrimLog:
     """A log with no readings yet (``tolerance`` None: the default, marked as assumed).
+
+    The coil is a closed core of unknown geometry (``offset``, ``turn_length`` and ``wire`` describe it),
+    or, with ``command``, that form command's coil described by ``arguments`` (checked by the command's
+    own parser: :func:`coilplan.cli.coil_text.parse_coil`).
 
     Examples
     --------
     >>> log = new_log(100e-6, tolerance=0.02)
-    >>> log.schema_, log.version, log.tolerance_assumed, log.readings
-    ('coilplan-trim-log', 1, False, ())
+    >>> log.schema_, log.version, log.tolerance_assumed, log.readings, log.coil.model
+    ('coilplan-trim-log', 2, False, (), 'closed-core')
+    >>> new_log(10e-6, command="solenoid", arguments=["--former", "25mm", "--wire", "0.5mm"]).coil.text
+    'solenoid --former 25mm --wire 0.5mm'
     """
+    if command is not None:
+        for field, given in (("offset", offset), ("turn_length", turn_length), ("wire", wire)):
+            if given:
+                raise InvalidInputError(field, f"no {field} beside a form command's coil (it goes in the "
+                                        f"coil's own description)", None)
     try:
-        return TrimLog(created=created or _now(),
-                       coil=Coil(name=name, offset=offset, turn_length_m=turn_length, wire=wire),
-                       target_H=target, operating_frequency_Hz=operating_frequency,
-                       meter_frequency_Hz=meter_frequency,
+        if command is None:
+            coil = ClosedCoreCoil(name=name, offset=offset, turn_length_m=turn_length, wire=wire)
+        else:
+            coil = FormCoil(name=name, command=command, arguments=tuple(arguments))
+    except ValidationError as error:
+        raise _validation_error(error) from None
+    # the checks every request gets, and a description its command refuses, now rather than at the first reading
+    coil_of(coil).request(target=target, frequency=operating_frequency, meter_frequency=meter_frequency,
+                          tolerance=tolerance, self_capacitance=self_capacitance)
+    try:
+        return TrimLog(created=created or _now(), coil=coil, target_H=target,
+                       operating_frequency_Hz=operating_frequency, meter_frequency_Hz=meter_frequency,
                        tolerance=DEFAULT_TOLERANCE if tolerance is None else tolerance,
                        tolerance_assumed=tolerance is None, self_capacitance_F=self_capacitance)
     except ValidationError as error:
-        item = error.errors(include_url=False)[0]
-        raise InvalidInputError(".".join(str(part) for part in item["loc"]), item["msg"].lower(),
-                                item.get("input")) from None
+        raise _validation_error(error) from None
 
 
 def add_reading(log: TrimLog, inductance: float, turns: int, *, note: str | None = None,
                 time: datetime | None = None) -> TrimLog:
     """The log with one more reading (the coil as it is now); the log given is not changed.
 
+    A reading at a turn count already in the log is a re-measure: it is kept beside the earlier one, and
+    the fit sees their mean (:func:`fit_points`).
+
     Raises
     ------
     InvalidInputError
-        Turns below 1 or not whole, an inductance not above zero, or a turn count already read.
+        Turns below 1 or not whole, or an inductance not above zero.
     """
     if isinstance(turns, bool) or not isinstance(turns, (int, np.integer)) or turns < 1:
         raise InvalidInputError("--measured", "a whole number of turns, at least 1", turns)
     if not (isinstance(inductance, (int, float, np.floating)) and math.isfinite(inductance) and inductance > 0):
         raise InvalidInputError("--measured", "an inductance above zero", inductance)
-    for index, reading in enumerate(log.readings, start=1):
-        if reading.turns == turns:
-            raise InvalidInputError("--measured", f"a turn count not yet in the log (reading {index} is already at "
-                                    f"{turns} turns: {format_quantity(reading.inductance_H, 'H')})",
-                                    f"{format_quantity(inductance, 'H')}@{turns}")
     reading = Reading(inductance_H=float(inductance), turns=int(turns), time=time or _now(), note=note)
     return log.model_copy(update={"readings": (*log.readings, reading)})
 
 
-def conditions_of(log: TrimLog) -> Conditions:
-    """The measurement conditions the log records (turn counts are taken as exact)."""
-    return Conditions(tolerance=log.tolerance, tolerance_assumed=log.tolerance_assumed,
-                      meter_frequency=log.meter_frequency_Hz, operating_frequency=log.operating_frequency_Hz,
-                      self_capacitance=log.self_capacitance_F)
-
-
-def evaluate(log: TrimLog) -> TrimStep:
-    """Refit the closed-core law to every reading and work out the next step.
-
-    The fit is :func:`coilplan.rewind.closed_core_fit` on the readings with the
-    self-capacitance effect at the meter frequency removed; the answer is
-    :func:`coilplan.rewind.rewind_fields` on a :class:`~coilplan.forms.ClosedCore`
-    with the fitted AL (and lead offset). A lead offset asked for is fitted from the
-    second reading on, and left out (with a notice) when it comes out below zero.
+def strike_reading(log: TrimLog, number: int, *, why: str | None = None, time: datetime | None = None) -> TrimLog:
+    """The log with reading ``number`` (from 1, as listed) struck out: kept, marked, and left out of the fit.
 
     Raises
     ------
     InvalidInputError
-        No readings yet.
+        No reading of that number, or one already struck out.
+
+    Examples
+    --------
+    >>> log = add_reading(add_reading(new_log(100e-6), 55e-6, 20), 5.5e-6, 22)
+    >>> [reading.struck is None for reading in strike_reading(log, 2, why="typed 5.5uH").readings]
+    [True, False]
+    """
+    count = len(log.readings)
+    if isinstance(number, bool) or not isinstance(number, (int, np.integer)) or not 1 <= number <= count:
+        expected = (f"a reading number from 1 to {count}, as trim show lists them" if count
+                    else "a reading to strike out: the log has none yet")
+        raise InvalidInputError("reading", expected, number)
+    reading = log.readings[number - 1]
+    if reading.struck is not None:
+        when = reading.struck.time.isoformat(sep=" ", timespec="minutes").replace("+00:00", " UTC")
+        reason = f": {reading.struck.why}" if reading.struck.why else ""
+        raise InvalidInputError("reading", f"a reading not struck out yet (reading {number} was struck out "
+                                f"{when}{reason})", number)
+    struck = reading.model_copy(update={"struck": Struck(time=time or _now(), why=why)})
+    readings = (*log.readings[: number - 1], struck, *log.readings[number:])
+    return log.model_copy(update={"readings": readings})
+
+
+def fit_points(log: TrimLog) -> tuple[FitPoint, ...]:
+    """The readings as the fit sees them: struck ones left out, those at one turn count averaged.
+
+    The points are in the order of each turn count's latest reading, so the last is the coil as it is
+    now (the reading the turns to add or remove start from).
+
+    Examples
+    --------
+    >>> log = new_log(100e-6)
+    >>> for value, turns in [(150e-6, 33), (121e-6, 30), (123e-6, 30)]:
+    ...     log = add_reading(log, value, turns)
+    >>> [(round(p.inductance * 1e6, 3), p.turns, p.numbers) for p in fit_points(log)]
+    [(150.0, 33, (1,)), (122.0, 30, (2, 3))]
+    """
+    groups: dict[int, list[tuple[int, float]]] = {}
+    for number, reading in enumerate(log.readings, start=1):
+        if reading.struck is None:
+            groups.setdefault(reading.turns, []).append((number, reading.inductance_H))
+    ordered = sorted(groups.items(), key=lambda item: item[1][-1][0])
+    return tuple(FitPoint(fmean(value for _, value in members), turns, tuple(number for number, _ in members))
+                 for turns, members in ordered)
+
+
+# --- the coil and the refit --------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class _BareCore:
+    """A closed core of unknown geometry as the log describes it: the form and the request it makes."""
+
+    coil: ClosedCoreCoil
+
+    def request(self, *, target: float, frequency: float | None = None, meter_frequency: float | None = None,
+                tolerance: float | None = None, self_capacitance: float | None = None,
+                readings: Sequence[tuple[float, int]] = ()) -> Request:
+        return Request(target=target, frequency=frequency, meter_frequency=meter_frequency, tolerance=tolerance,
+                       self_capacitance=self_capacitance,
+                       readings=tuple(MeterReading(value, turns) for value, turns in readings))
+
+    def form_and_request(self, **fields):
+        wire = parse_wire(self.coil.wire, option="wire") if self.coil.wire else None
+        form = ClosedCore(turn_length=self.coil.turn_length_m, wire=wire, fit_offset=self.coil.offset)
+        return form, self.request(**fields)
+
+
+def coil_of(coil: ClosedCoreCoil | FormCoil):
+    """What the log's coil stands for: an object whose ``form_and_request(target=..., readings=...)`` gives the
+    uncalibrated form and the :class:`~coilplan.request.Request` for :func:`coilplan.pipeline.design`, and whose
+    ``request(...)`` gives the request alone (the same keywords).
+
+    A form command's coil is read by that command's own parser (:func:`coilplan.cli.coil_text.parse_coil`):
+    the description is the command's, so it is the command that reads it (imported only for such a log).
+
+    Raises
+    ------
+    InvalidInputError
+        A description its command refuses (:class:`coilplan.cli.coil_text.CoilTextError`).
+    """
+    if isinstance(coil, ClosedCoreCoil):
+        return _BareCore(coil)
+    from coilplan.cli.coil_text import parse_coil
+
+    return parse_coil(coil.command, coil.arguments)
+
+
+def evaluate(log: TrimLog) -> TrimStep:
+    """Refit the coil's model to the readings and work out the next step, by :func:`coilplan.pipeline.design`.
+
+    The readings not struck out, averaged per turn count (:func:`fit_points`), go into a
+    :class:`~coilplan.request.Request` with the log's target and conditions; the log's coil gives the
+    uncalibrated form (:func:`coil_of`). Design corrects the readings for self-capacitance at the meter
+    frequency, calibrates the form (a closed core's AL, and its lead offset from the second turn count on;
+    a model's scale factor), and answers the turns to add or remove with their range (docs/methods.md §20).
+
+    Raises
+    ------
+    InvalidInputError
+        No readings yet (or every one struck out), or readings the form cannot take.
     InfeasibleError
-        The readings give no positive AL value.
+        The readings give no positive AL value, or no whole number of turns meets the target.
 
     Examples
     --------
@@ -274,23 +465,33 @@ def evaluate(log: TrimLog) -> TrimStep:
     >>> step.fields["turns"], step.fields["turns_change"]
     (27, 7)
     """
-    if not log.readings:
-        raise InvalidInputError("readings", "at least one reading: give one with --measured L@N", None)
-    conditions = conditions_of(log)
-    readings = [(reading.inductance_H, reading.turns) for reading in log.readings]
-    wire = parse_wire(log.coil.wire, option="wire") if log.coil.wire else None
-    answer = closed_core_answer(readings, log.target_H, conditions, offset=log.coil.offset,
-                                turn_length=log.coil.turn_length_m, wire=wire)
-    fields, warnings_, fit, form = answer.fields, answer.warnings, answer.fit, answer.form
-    notices = _direction_notices(log.readings) + list(answer.notices)
-    notices += _target_notices(log, fields, conditions)
-    return TrimStep(fields, tuple(warnings_), tuple(notices), fit, form)
+    from coilplan.pipeline import design
+
+    points = fit_points(log)
+    if not points:
+        expected = ("at least one reading: give one with --measured L@N" if not log.readings
+                    else "at least one reading not struck out: give one with --measured L@N")
+        raise InvalidInputError("readings", expected, None)
+    form, request = coil_of(log.coil).form_and_request(
+        target=log.target_H, frequency=log.operating_frequency_Hz, meter_frequency=log.meter_frequency_Hz,
+        tolerance=None if log.tolerance_assumed else log.tolerance, self_capacitance=log.self_capacitance_F,
+        readings=[(point.inductance, point.turns) for point in points])
+    answer = design(form, request)
+    fields = dict(answer.result)
+    found = list(fields.pop("notices", []))
+    if "turns_now" not in fields:  # the last reading was of another winding than the coil described
+        raise InvalidInputError("readings", "readings of the coil being trimmed: " + "; ".join(found), None)
+    notices = _direction_notices(log) + _remeasure_notices(points) + found
+    notices += _target_notices(log, points[-1], fields, answer.measured.conditions)
+    return TrimStep(fields, tuple(answer.warnings), tuple(notices), answer.measured.fit, answer.form,
+                    tuple(answer.cautions), points, answer.measured.conditions)
 
 
-def _direction_notices(readings) -> list[str]:
-    """Consecutive readings whose inductance moved against the turns (L rises with N on any coil)."""
+def _direction_notices(log: TrimLog) -> list[str]:
+    """Consecutive readings (not struck out) whose inductance moved against the turns (L rises with N on any coil)."""
     texts = []
-    for number, (before, after) in enumerate(itertools.pairwise(readings), start=2):
+    kept = [(number, reading) for number, reading in enumerate(log.readings, start=1) if reading.struck is None]
+    for (_, before), (number, after) in itertools.pairwise(kept):
         step = after.turns - before.turns
         rise = after.inductance_H - before.inductance_H
         if step * rise >= 0:
@@ -304,14 +505,26 @@ def _direction_notices(readings) -> list[str]:
     return texts
 
 
-def _target_notices(log: TrimLog, fields: dict, conditions: Conditions) -> list[str]:
-    """"Stop" when the latest reading is within the meter tolerance of the target (both at low frequency)."""
-    latest = log.readings[-1]
-    value = low_frequency_readings([(latest.inductance_H, latest.turns)], conditions)[0][0]
+def _remeasure_notices(points: Sequence[FitPoint]) -> list[str]:
+    """Readings at one turn count, averaged: say which, and what the fit sees."""
+    texts = []
+    for point in points:
+        if len(point.numbers) < 2:
+            continue
+        numbers = ", ".join(map(str, point.numbers[:-1])) + f" and {point.numbers[-1]}"
+        texts.append(f"readings {numbers} at {point.turns} turns are averaged (a re-measure at the same turns): "
+                     f"the fit sees their mean, {format_quantity(point.inductance, 'H')}; each stays in the log "
+                     f"(strike out a misread one with trim strike)")
+    return texts
+
+
+def _target_notices(log: TrimLog, latest: FitPoint, fields: dict, conditions) -> list[str]:
+    """"Stop" when the coil as it is now reads within the meter tolerance of the target (both at low frequency)."""
+    value = low_frequency_readings([(latest.inductance, latest.turns)], conditions)[0][0]
     target = fields["target_low_frequency_H"]
     if abs(value - target) > conditions.tolerance * target:
         return []
-    text = (f"on target: {format_quantity(latest.inductance_H, 'H')} at {latest.turns} turns is within the "
+    text = (f"on target: {format_quantity(latest.inductance, 'H')} at {latest.turns} turns is within the "
             f"±{conditions.tolerance:.1%} meter tolerance of {format_quantity(log.target_H, 'H')}: stop here")
     if fields["turns_change"]:
         text += (f" (the fit's nearest whole number is {fields['turns']} turns, a difference the meter "
@@ -322,21 +535,31 @@ def _target_notices(log: TrimLog, fields: dict, conditions: Conditions) -> list[
 # --- the file ----------------------------------------------------------------------------------
 
 
+def _where(location) -> str:
+    """A pydantic location as the file's field path (``coil.wire``: the coil's kind, a union tag, left out)."""
+    parts = [str(part) for index, part in enumerate(location)
+             if not (index and location[index - 1] == "coil" and part in ("closed-core", "form"))]
+    return ".".join(parts)
+
+
 def _problem(error: ValidationError) -> str:
     """The first validation problem as 'field: message (got value)'; the count of any others."""
     problem = first_problem(error)
-    where = ".".join(str(part) for part in problem.location) or "the document"
+    where = _where(problem.location) or "the document"
     return f"{where}: {problem.message}{problem.got}{problem.more}"
 
 
 def load_log(path) -> TrimLog:
     """Read and validate a trim log; the file is only read.
 
+    A version-1 log is read as it is and comes back as version 2 (written so when next saved). A form
+    command's coil is checked by that command's parser (:func:`coil_of`).
+
     Raises
     ------
     LogFileError
-        No such file, not UTF-8 JSON, not a trim log, written by a newer coilplan, or a field
-        that does not validate (named, with the value found).
+        No such file, not UTF-8 JSON, not a trim log, written by a newer coilplan, a field that does not
+        validate (named, with the value found), or a coil description its command refuses.
     """
     path = Path(path)
     try:
@@ -364,9 +587,33 @@ def load_log(path) -> TrimLog:
         raise LogFileError(path, f"written by a newer coilplan (log version {version}; this one reads up to "
                                  f"{VERSION}): update coilplan to read it")
     try:
-        return TrimLog.model_validate_json(raw, strict=True)
+        log = TrimLog.model_validate_json(raw, strict=True)
     except ValidationError as error:
         raise LogFileError(path, _problem(error)) from None
+    if log.version == 1:
+        _check_version_1(path, log)
+        log = log.model_copy(update={"version": VERSION})
+    if isinstance(log.coil, FormCoil):
+        try:
+            coil_of(log.coil)
+        except InvalidInputError as error:
+            raise LogFileError(path, f"coil: {getattr(error, 'problem', error)}") from None
+    return log
+
+
+def _check_version_1(path, log: TrimLog) -> None:
+    """A version-1 log knew closed cores only, one reading per turn count, and nothing struck out."""
+    if not isinstance(log.coil, ClosedCoreCoil):
+        raise LogFileError(path, "coil.model: a version-1 log holds a closed core only (a form's coil needs "
+                                 "version 2)")
+    seen = set()
+    for index, reading in enumerate(log.readings):
+        if reading.struck is not None:
+            raise LogFileError(path, f"readings.{index}.struck: not in a version-1 log (needs version 2)")
+        if reading.turns in seen:
+            raise LogFileError(path, f"readings.{index}.turns: one reading per turn count in a version-1 log "
+                                     f"(repeated: {reading.turns})")
+        seen.add(reading.turns)
 
 
 def _document(log: TrimLog) -> bytes:
@@ -407,3 +654,14 @@ def record_reading(path, inductance: float, turns: int, *, note: str | None = No
     save_log(path, log)
     return log, step
 
+
+def record_strike(path, number: int, *, why: str | None = None,
+                  time: datetime | None = None) -> tuple[TrimLog, TrimStep | None]:
+    """Load the log, strike out reading ``number``, refit, save: (the new log, the next step or None).
+
+    The step is None when no reading is left to fit; the log is saved only when the refit succeeds.
+    """
+    log = strike_reading(load_log(path), number, why=why, time=time)
+    step = evaluate(log) if fit_points(log) else None
+    save_log(path, log)
+    return log, step

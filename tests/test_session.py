@@ -20,8 +20,10 @@ from coilplan.session import (
     load_log,
     new_log,
     record_reading,
+    record_strike,
     save_log,
     start_log,
+    strike_reading,
 )
 
 
@@ -166,10 +168,10 @@ def test_target_reached_says_stop():
     pytest.param(0.0, 20, "above zero", id="zero-inductance"),
     pytest.param(-5e-6, 20, "above zero", id="negative-inductance"),
     pytest.param(math.nan, 20, "above zero", id="nan"),
-    pytest.param(100e-6, 30, "not yet in the log", id="repeated-turns"),
 ])
 def test_reading_is_validated(value, turns, fragment):
-    """Turns at least 1, an inductance above zero, one reading per turn count (common practice, no source)."""
+    """Turns at least 1 and an inductance above zero (common practice, no source); a repeated turn count is a
+    re-measure, accepted (see test_remeasure_at_one_count_is_averaged)."""
     log = log_with([(121e-6, 30)])
     with pytest.raises(InvalidInputError, match=fragment) as caught:
         add_reading(log, value, turns)
@@ -185,12 +187,12 @@ def test_round_trip_and_schema_fields(saved):
     path, _ = saved
     log = load_log(path)
     document = json.loads(path.read_text())
-    assert document["schema"] == "coilplan-trim-log" and document["version"] == 1
+    assert document["schema"] == "coilplan-trim-log" and document["version"] == 2
     assert set(document) == {"schema", "version", "created", "coil", "target_H", "operating_frequency_Hz",
                              "meter_frequency_Hz", "tolerance", "tolerance_assumed", "self_capacitance_F",
                              "readings"}
     assert document["coil"]["model"] == "closed-core"
-    assert set(document["readings"][0]) == {"inductance_H", "turns", "time", "note"}
+    assert set(document["readings"][0]) == {"inductance_H", "turns", "time", "note", "struck"}
     assert [(r.inductance_H, r.turns) for r in log.readings] == [(150e-6, 33), (121e-6, 30)]
     save_log(path, log)
     assert load_log(path) == log
@@ -319,7 +321,7 @@ def changed(**updates):
     pytest.param("", "broken JSON", id="empty"),
     pytest.param(changed(schema="some-other-log"), "not a coilplan trim log", id="wrong-schema"),
     pytest.param("[1, 2]", "not a coilplan trim log", id="not-an-object"),
-    pytest.param(changed(version=2), "newer coilplan", id="newer-version"),
+    pytest.param(changed(version=3), "newer coilplan", id="newer-version"),
     pytest.param(changed(version="1"), "version", id="version-as-text"),
     pytest.param(changed(turns="33"), "readings.0.turns", id="turns-as-text"),
     pytest.param(changed(turns=33.5), "readings.0.turns", id="turns-not-whole"),
@@ -383,3 +385,121 @@ def test_negative_lead_offset_is_left_out():
     assert step.fit == closed_core_fit(readings)
     assert step.fields["inductance_H"] > 0 and step.fields["turns"] > 20
     assert any("below zero" in text for text in step.notices)
+
+
+# --- re-measures, struck readings, any form, version 1 ------------------------------------------
+
+
+def weighted_al(readings):
+    """AL by the weighted least squares of docs/methods.md §20 in closed form: Σ(N²/L) / Σ(N⁴/L²)."""
+    values = np.array([value for value, _ in readings])
+    counts = np.array([turns for _, turns in readings], dtype=float)
+    return float(np.sum(counts**2 / values) / np.sum(counts**4 / values**2))
+
+
+def test_remeasure_at_one_count_is_averaged():
+    """Two readings at 30 turns are kept; the fit sees their mean, one point per count (docs/methods.md §20)."""
+    log = log_with([(150e-6, 33), (121e-6, 30), (125e-6, 30)])
+    assert [(r.inductance_H, r.turns) for r in log.readings] == [(150e-6, 33), (121e-6, 30), (125e-6, 30)]
+    step = evaluate(log)
+    assert [(p.turns, p.numbers) for p in step.points] == [(33, (1,)), (30, (2, 3))]
+    assert step.points[-1].inductance == pytest.approx(123e-6, rel=1e-15)
+    assert step.fit == closed_core_fit([(150e-6, 33), (123e-6, 30)])
+    assert step.fields["al_H"] == pytest.approx(weighted_al([(150e-6, 33), (123e-6, 30)]), rel=1e-12)
+    assert step.fields["turns_now"] == 30
+    assert any("averaged" in text and "readings 2 and 3" in text for text in step.notices)
+
+
+def test_struck_reading_is_left_out_of_the_fit():
+    """A struck reading is kept and marked, and the step equals that of the log without it (§20)."""
+    log = log_with([(160e-6, 34), (13.1e-6, 31), (104e-6, 28)])
+    struck = strike_reading(log, 2, why="typed 13.1 for 131")
+    assert struck.readings[1].inductance_H == 13.1e-6 and struck.readings[1].struck.why == "typed 13.1 for 131"
+    assert log.readings[1].struck is None  # the log given is not changed
+    step, without = evaluate(struck), evaluate(log_with([(160e-6, 34), (104e-6, 28)]))
+    assert step.fit == without.fit == closed_core_fit([(160e-6, 34), (104e-6, 28)])
+    for key in ("turns_now", "turns", "turns_exact", "turns_change", "turns_range", "uncertainty"):
+        assert step.fields[key] == without.fields[key], key
+    assert [p.numbers for p in step.points] == [(1,), (3,)]
+    with pytest.raises(InvalidInputError, match="reading 2 was struck out"):
+        strike_reading(struck, 2)
+    with pytest.raises(InvalidInputError, match="from 1 to 3"):
+        strike_reading(struck, 4)
+    with pytest.raises(InvalidInputError, match="not struck out"):
+        evaluate(strike_reading(strike_reading(struck, 1), 3))
+
+
+def test_record_strike_saves_and_refits(saved):
+    """record_strike marks the reading in the file and gives the refit on what is left."""
+    path, _ = saved
+    log, step = record_strike(path, 1, why="wrong core")
+    assert load_log(path) == log and log.readings[0].struck.why == "wrong core"
+    assert step.fit == closed_core_fit([(121e-6, 30)])
+
+
+def test_form_coil_is_evaluated_by_design_as_its_command_builds_it():
+    """A solenoid's log answers as design(Solenoid.on_former(...), Request(...)) on the same readings (§1, §20)."""
+    from coilplan.forms import Solenoid
+    from coilplan.pipeline import design
+    from coilplan.request import Reading as MeterReading
+    from coilplan.request import Request
+    from coilplan.wire import parse_wire
+
+    log = new_log(10e-6, tolerance=0.01, command="solenoid", arguments=["--former", "25mm", "--wire", "0.5mm"])
+    for value, turns in [(20e-6, 30), (12.4e-6, 22)]:
+        log = add_reading(log, value, turns)
+    step = evaluate(log)
+    readings = (MeterReading(20e-6, 30), MeterReading(12.4e-6, 22))
+    answer = design(Solenoid.on_former(0.025, parse_wire("0.5mm")),
+                    Request(target=10e-6, tolerance=0.01, readings=readings))
+    for key in ("turns_now", "turns", "turns_exact", "turns_change", "turns_range", "inductance_H", "uncertainty"):
+        assert step.fields[key] == answer.result[key], key
+    assert step.fit == answer.measured.fit
+
+
+def test_form_coil_refused_beside_closed_core_fields():
+    """A form's coil takes no closed-core wire, offset or turn length (they belong in its description)."""
+    with pytest.raises(InvalidInputError, match="wire"):
+        new_log(10e-6, command="solenoid", arguments=["--former", "25mm", "--wire", "0.5mm"], wire="0.5mm")
+
+
+def test_version_1_document_loads_as_version_2(tmp_path):
+    """A version-1 log loads unchanged on disk and comes back as version 2 with its readings and coil."""
+    path = tmp_path / "coil.json"
+    path.write_text(json.dumps(good_document()))
+    before = path.read_bytes()
+    log = load_log(path)
+    assert log.version == 2 and log.coil.name == "demo" and log.coil.model == "closed-core"
+    assert [(r.inductance_H, r.turns, r.struck) for r in log.readings] == [(1.5e-4, 33, None)]
+    assert path.read_bytes() == before
+    record_reading(path, 1.21e-4, 30)
+    assert json.loads(path.read_text())["version"] == 2
+
+
+@pytest.mark.parametrize("change, fragment", [
+    pytest.param(lambda d: d["readings"][0].update(struck={"time": "2025-03-01T10:06:00Z", "why": None}),
+                 "readings.0.struck", id="struck-in-v1"),
+    pytest.param(lambda d: d["readings"].append(dict(d["readings"][0])), "one reading per turn count",
+                 id="repeated-count-in-v1"),
+    pytest.param(lambda d: d.update(coil={"name": None, "model": "form", "command": "solenoid", "arguments": []}),
+                 "coil.model", id="form-in-v1"),
+])
+def test_version_1_holds_only_what_version_1_knew(tmp_path, change, fragment):
+    """What only version 2 can hold (struck readings, re-measures, a form's coil) is refused in a version-1 file."""
+    document = good_document()
+    change(document)
+    path = tmp_path / "coil.json"
+    path.write_text(json.dumps(document))
+    with pytest.raises(LogFileError, match=fragment):
+        load_log(path)
+
+
+def test_form_coil_in_the_file_is_checked_by_its_command(tmp_path):
+    """A stored description its command refuses is a LogFileError naming the file and the option."""
+    document = good_document() | {"version": 2}
+    document["coil"] = {"name": None, "model": "form", "command": "solenoid", "arguments": ["--former", "25mm"]}
+    path = tmp_path / "coil.json"
+    path.write_text(json.dumps(document))
+    with pytest.raises(LogFileError, match="coil: solenoid: Missing option '--wire'") as caught:
+        load_log(path)
+    assert str(path) in str(caught.value)

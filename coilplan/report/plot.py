@@ -1,4 +1,4 @@
-r"""The trim plot: inductance against turns, with the fitted closed-core curve and the target band.
+r"""The trim plot: inductance against turns, with the calibrated model's curve and the target band.
 
 Drawn with matplotlib's object API (a :class:`matplotlib.figure.Figure` on the Agg
 canvas, no pyplot), imported only inside :func:`trim_plot`, so that commands which do
@@ -114,20 +114,23 @@ def impedance_plot(*, sweep: dict, operating_frequency: float | None, fmt: str, 
     return _picture(figure, fmt, rc_context)
 
 
-def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float, target: float, tolerance: float,
-              turns: int, inductance: float, fmt: str, title: str | None = None, low_frequency: bool = False) -> bytes:
+def trim_plot(*, readings: Sequence[tuple[float, int]], curve, curve_label: str, target: float, tolerance: float,
+              turns: int, inductance: float, fmt: str, title: str | None = None, low_frequency: bool = False,
+              lowest: float = 0.0) -> bytes:
     r"""Draw L against N for a coil being trimmed, and return the file's bytes.
 
-    The calibrated curve :math:`L = A_L N^2 + L_0` spans the readings and the answer;
-    each reading carries an error bar of ± ``tolerance``; the band is
+    The calibrated model (for a closed core :math:`L = A_L N^2 + L_0`) spans the readings
+    and the answer; each reading carries an error bar of ± ``tolerance``; the band is
     ``target`` ± ``tolerance``; a marker shows the recommended stop.
 
     Parameters
     ----------
     readings : sequence of (float, int)
         (H, turns), on the same footing as the curve (low-frequency when corrected).
-    al, offset : float
-        The fitted AL value, H per turn², and the leads' series part, H.
+    curve : callable
+        The calibrated model's inductance, H, at an array of (float) turns.
+    curve_label : str
+        The curve's legend, e.g. ``"fitted: L = AL·N²"``.
     target : float
         The inductance wanted, H (on the curve's footing).
     tolerance : float
@@ -138,6 +141,8 @@ def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float
     title : str, optional
     low_frequency : bool
         True when the readings and target were corrected for self-capacitance: the axis says so.
+    lowest : float
+        The fewest turns the curve is drawn from (the model's own lower end).
 
     Raises
     ------
@@ -150,7 +155,7 @@ def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float
     counts = [count for _, count in readings] + [turns]
     low, high = min(counts), max(counts)
     margin = max(1.0, 0.08 * (high - low))
-    curve_turns = np.linspace(max(0.0, low - margin), high + margin, 200)
+    curve_turns = np.linspace(max(lowest, low - margin), high + margin, 200)
     micro = 1e6
 
     figure = Figure(figsize=(6.4, 4.2), layout="constrained")
@@ -159,8 +164,7 @@ def trim_plot(*, readings: Sequence[tuple[float, int]], al: float, offset: float
     axes.axhspan((target * (1 - tolerance)) * micro, (target * (1 + tolerance)) * micro, color="tab:green",
                  alpha=0.18, label=f"target ± {tolerance:.1%}")
     axes.axhline(target * micro, color="tab:green", linewidth=0.8)
-    curve_label = "fitted: L = AL·N² + L0" if offset else "fitted: L = AL·N²"
-    axes.plot(curve_turns, (al * curve_turns**2 + offset) * micro, color="tab:blue", label=curve_label)
+    axes.plot(curve_turns, np.asarray(curve(curve_turns), dtype=float) * micro, color="tab:blue", label=curve_label)
     values = np.array([value for value, _ in readings], dtype=float)
     axes.errorbar([count for _, count in readings], values * micro, yerr=values * tolerance * micro, fmt="o",
                   color="black", capsize=3, label="readings ± meter tolerance")

@@ -2,9 +2,10 @@
 
 from __future__ import annotations
 
+import unicodedata
 from collections.abc import Iterable, Sequence
 
-__all__ = ["aligned_rows", "bullet_lines", "turns_word"]
+__all__ = ["aligned_rows", "bullet_lines", "printable", "turns_word"]
 
 
 def aligned_rows(rows: Iterable[Sequence[str]], indent: int = 2) -> list[str]:
@@ -56,3 +57,14 @@ def turns_word(count) -> str:
     ('1 turn', '40 turns')
     """
     return f"{count} turn" if count == 1 else f"{count} turns"
+
+
+def printable(text: str) -> str:
+    r"""Text from a user's file as one printable line: control characters (a newline, an escape) shown escaped.
+
+    Examples
+    --------
+    >>> print(printable("coil\nA\x1b[31m"))
+    coil\nA\x1b[31m
+    """
+    return "".join(repr(char)[1:-1] if unicodedata.category(char).startswith("C") else char for char in text)

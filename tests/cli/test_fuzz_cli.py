@@ -5,6 +5,7 @@ micro signs, commas, exponents, huge and tiny numbers, empty strings and unicode
 """
 
 import os
+import shlex
 import tempfile
 
 from click.testing import CliRunner
@@ -113,6 +114,44 @@ def test_random_trim_logs_never_crash(data):
         added = CliRunner().invoke(main, ["trim", "add", log, "--measured", data.draw(value())])
         assert added.exit_code in (0, 1, 2), added.output
         assert "Traceback" not in added.output and "internal error" not in added.output, added.output
+
+
+# A form's coil for the trim log: the command's base, the core left to the readings where they must give it.
+TRIM_COILS = {
+    "solenoid": BASES["solenoid"],
+    "toroid": ["--od", "23mm", "--id", "14mm", "--height", "7mm", "--wire", "0.5mm"],
+    "gapped": ["--ae", "50mm2", "--le", "40mm", "--wire", "0.3mm"],
+    "multilayer": BASES["multilayer"],
+    "spiral": BASES["spiral"],
+}
+
+
+@settings(max_examples=int(os.environ.get("COILPLAN_FUZZ_EXAMPLES", "600")) // 12, deadline=None)
+@given(data=st.data())
+def test_random_form_trim_logs_never_crash(data):
+    """`trim start --coil` with a form's options given random values, then `add` and `strike`: exit 0, 1 or 2,
+    one line on failure, a log only on success."""
+    command = data.draw(st.sampled_from(sorted(TRIM_COILS)))
+    words = [command, *TRIM_COILS[command]]
+    for option in data.draw(st.lists(st.sampled_from(COMMANDS[command]), max_size=2, unique=True)):
+        words += [option, data.draw(value())]
+    with tempfile.TemporaryDirectory() as folder:
+        log = os.path.join(folder, "log.json")
+        arguments = ["trim", "start", log, "--target", "100uH", "--coil", shlex.join(words)]
+        if data.draw(st.booleans()):
+            arguments += ["--measured", data.draw(value())]
+        runs = [CliRunner().invoke(main, arguments)]
+        if runs[0].exit_code == 0:
+            runs.append(CliRunner().invoke(main, ["trim", "add", log, "--measured", data.draw(value())]))
+            runs.append(CliRunner().invoke(main, ["trim", "strike", log, data.draw(value())]))
+        elif runs[0].exit_code:
+            assert not os.path.exists(log), arguments  # a refused start writes nothing
+        for result in runs:
+            assert result.exit_code in (0, 1, 2), (arguments, result.output)
+            assert "Traceback" not in result.output and "internal error" not in result.output, (arguments,
+                                                                                               result.output)
+            if result.exit_code:
+                assert result.stderr.count("\n") == 1, (arguments, result.stderr)
 
 
 PLAN_FIELDS = {

@@ -119,7 +119,6 @@ def test_start_refuses_an_existing_file_without_force(log):
     pytest.param(["--measured", "55uH"], "--measured", id="no-turns"),
     pytest.param(["--measured", "0uH@20"], "--measured", id="zero-inductance"),
     pytest.param(["--measured", "50uH@0"], "--measured", id="zero-turns"),
-    pytest.param(["--measured", "50uH@20"], "not yet in the log", id="repeated-turn-count"),
     pytest.param(["--measured", "50uH@18", "--plot", "out.gif"], "--plot", id="plot-ending"),
 ])
 def test_add_bad_input_is_one_line_and_keeps_the_log(log, args, fragment):
@@ -232,3 +231,237 @@ def test_trim_is_listed_in_the_help():
     assert bare.exit_code == 0 and "start" in bare.stdout
     text = run("trim", "--help").stdout
     assert all(name in text for name in ("start", "add", "show"))
+
+
+# --- any form through the log: the same answer as its own command ------------------------------
+
+#: (description, target, trim start options, readings in the order taken)
+FORM_LOGS = {
+    # single-layer air coil, docs/methods.md §1 and §3, calibrated by a scale factor, §20
+    "solenoid": ("solenoid --former 25mm --wire 0.5mm", "10uH", ["--tolerance", "1%"],
+                 ["20uH@30", "12.4uH@22", "10.1uH@19"]),
+    # the same at frequency: readings corrected with the winding's own self-capacitance estimate, §6b and §10
+    "solenoid-at-frequency": ("solenoid --former 25mm --wire 0.5mm", "10uH",
+                              ["--tolerance", "1%", "--meter-freq", "100kHz", "--at", "7MHz"],
+                              ["20uH@30", "12.4uH@22", "10.3uH@19"]),
+    # a coil on a ferrite rod of a named class, slice model §14, scale factor §20
+    "rod": ("rod --rod-length 100mm --rod-diameter 10mm --wire 0.3mm --material nizn-125", "300uH",
+            ["--tolerance", "2%"], ["200uH@40", "290uH@48"]),
+    # a rod of unknown material: the last reading also sets its permeability (§20, the rod's permeability)
+    "rod-unknown-material": ("rod --rod-length 100mm --rod-diameter 10mm --wire 0.3mm", "160uH",
+                             ["--tolerance", "2%"], ["100uH@40", "146uH@48"]),
+}
+
+#: The answer's figures the log must share with the command: the turns and their range, and what they rest on.
+SAME_KEYS = ("turns_now", "turns", "turns_exact", "turns_change", "turns_range", "turns_range_exact", "turns_below",
+             "turns_above", "inductance_H", "inductance_below_H", "inductance_above_H", "uncertainty",
+             "target_low_frequency_H", "apparent_inductance_H", "residuals", "explanation", "plan")
+
+
+@pytest.mark.parametrize("case", sorted(FORM_LOGS))
+def test_form_log_answers_as_its_command_after_each_reading(tmp_path, case):
+    """After each reading the log gives what the form command gives with the same --measured readings, to 1e-9.
+
+    Both go through one design(form, request); the model and fit are those of docs/methods.md §20 (and the
+    form's own sections, see FORM_LOGS), so this checks that the log rebuilds the same form and request.
+    """
+    text, target, options, readings = FORM_LOGS[case]
+    path = tmp_path / "coil.json"
+    command = text.split()
+    for count in range(1, len(readings) + 1):
+        if count == 1:
+            ours = run_json("trim", "start", path, "--target", target, "--coil", text, *options,
+                            "--measured", readings[0])
+        else:
+            ours = run_json("trim", "add", path, "--measured", readings[count - 1])
+        measured = [part for reading in readings[:count] for part in ("--measured", reading)]
+        theirs = CliRunner().invoke(main, [*command, "--target", target, *options, *measured, "--json"])
+        assert theirs.exit_code == 0, theirs.stdout + theirs.stderr
+        expected = json.loads(theirs.stdout)["result"]
+        for key in SAME_KEYS:
+            if isinstance(expected.get(key), float):
+                assert ours["result"][key] == pytest.approx(expected[key], rel=1e-9, abs=0), (count, key)
+            elif isinstance(expected.get(key), list) and expected[key] and isinstance(expected[key][0], float):
+                assert ours["result"][key] == pytest.approx(expected[key], rel=1e-9, abs=1e-15), (count, key)
+            else:
+                assert ours["result"][key] == expected.get(key), (count, key)
+        assert ours["result"]["calibration"]["value"] == pytest.approx(expected["calibration"]["value"], rel=1e-9)
+        if "mu_fitted" in expected:  # the rod of unknown material
+            assert ours["result"]["mu_fitted"] == pytest.approx(expected["mu_fitted"], rel=1e-9)
+        else:
+            assert "mu_fitted" not in ours["result"]
+        assert ours["warnings"] == json.loads(theirs.stdout)["warnings"]
+    assert json.loads(path.read_text())["coil"] == {"name": None, "model": "form", "command": command[0],
+                                                     "arguments": command[1:]}
+    shown = run("trim", "show", path)
+    assert shown.exit_code == 0
+    assert shown.stdout.splitlines()[0] == f"Trim log {path}: {text}, to {henry_text(target)}"
+
+
+def henry_text(target: str) -> str:
+    """The target as the title prints it (four significant digits)."""
+    return {"10uH": "10.00 μH", "160uH": "160.0 μH", "300uH": "300.0 μH"}[target]
+
+
+def test_toroid_log_fits_al_from_the_readings(tmp_path):
+    """A ring core of unknown material in the log: AL = L/N² from the reading (IEC 60205, docs/methods.md §8),
+    as `coilplan toroid` gives it; the text shows the fitted AL value."""
+    coil = "toroid --od 12.7mm --id 7.7mm --height 4.8mm --wire 0.3mm"
+    document = run_json("trim", "start", tmp_path / "t.json", "--target", "100uH", "--tolerance", "2%",
+                        "--coil", coil, "--measured", "50uH@20")
+    result = document["result"]
+    assert result["calibration"]["value"] == pytest.approx(50e-6 / 400, rel=1e-12)  # hand-worked AL
+    assert (result["turns_now"], result["turns"], result["turns_change"]) == (20, 28, 8)  # √(100/50)·20 = 28.28
+    assert document["cautions"]  # the command's cautions come with it (an unknown core may be salvaged)
+    text = run("trim", "show", tmp_path / "t.json").stdout
+    assert "AL value        125.0 nH per turn²" in text
+
+
+@pytest.mark.parametrize("coil, fragment", [
+    pytest.param("solenoid --former 25mm --wire 0.5mm --target 10uH", "without --target", id="target"),
+    pytest.param("solenoid --former 25mm --wire 0.5mm --turns 19", "without --turns", id="turns"),
+    pytest.param("solenoid --former 25mm --wire 0.5mm --measured 20uH@30", "without --measured", id="measured"),
+    pytest.param("solenoid --former 25mm --wire 0.5mm --tolerance 2%", "without --tolerance", id="tolerance"),
+    pytest.param("solenoid --former 25mm --wire 0.5mm --at 7MHz", "without --at", id="at"),
+    pytest.param("solenoid --former 25mm --wire 0.5mm --json", "without --json", id="json"),
+    pytest.param("solenoid --former 25mm", "Missing option '--wire'", id="missing-wire"),
+    pytest.param("solenoid --former 25 --wire 0.5mm", "solenoid --former: expected a length", id="bad-length"),
+    pytest.param("solenoid --wire 0.5mm", "one of --former or --diameter", id="form-refuses"),
+    pytest.param("solenoid --formr 25mm --wire 0.5mm", "No such option '--formr'", id="unknown-option"),
+    pytest.param("solenoid --help", "No such option '--help'", id="help"),
+    pytest.param("choke --turns 3", "a form command first", id="not-a-form-command"),
+    pytest.param("", "a form command and its options", id="empty"),
+    pytest.param("solenoid '25mm", "shell words", id="unclosed-quote"),
+    pytest.param("solenoid --form\x1br 25mm --wire 0.5mm", "No such option '--form\\x1br'", id="escape-shown-escaped"),
+])
+def test_coil_text_refused_on_one_line_and_nothing_written(tmp_path, coil, fragment):
+    """A --coil text its command refuses, or one giving what the log sets itself: exit 2, one line naming it."""
+    result = run("trim", "start", tmp_path / "c.json", "--target", "10uH", "--coil", coil)
+    one_line_error(result, 2, "--coil", fragment)
+    assert os.listdir(tmp_path) == []
+
+
+@pytest.mark.parametrize("extra", [["--wire", "0.5mm"], ["--offset"], ["--turn-length", "20mm"]])
+def test_closed_core_options_beside_coil_are_refused(tmp_path, extra):
+    """--wire, --offset and --turn-length describe the bare closed core: beside --coil they are one-line errors."""
+    result = run("trim", "start", tmp_path / "c.json", "--target", "10uH", "--coil",
+                 "solenoid --former 25mm --wire 0.5mm", *extra)
+    one_line_error(result, 2, extra[0], "--coil")
+    assert os.listdir(tmp_path) == []
+
+
+def test_hand_edited_coil_description_names_the_file(tmp_path):
+    """A stored description its command refuses is a one-line error naming the file; the log is kept."""
+    path = tmp_path / "c.json"
+    coil = "solenoid --former 25mm --wire 0.5mm"
+    assert run("trim", "start", path, "--target", "10uH", "--coil", coil).exit_code == 0
+    document = json.loads(path.read_text())
+    document["coil"]["arguments"] = ["--former", "25", "--wire", "0.5mm"]
+    path.write_text(json.dumps(document))
+    before = path.read_bytes()
+    for args in (["add", path, "--measured", "20uH@30"], ["show", path]):
+        one_line_error(run("trim", *args), 2, str(path), "coil: solenoid --former")
+    assert path.read_bytes() == before
+
+
+# --- striking out and re-measuring ---------------------------------------------------------------
+
+
+def closed_al(readings):
+    """AL by the weighted least squares of docs/methods.md §20 in closed form: Σ(N²/L) / Σ(N⁴/L²)."""
+    return (sum(n**2 / value for value, n in readings) / sum(n**4 / value**2 for value, n in readings))
+
+
+def test_strike_leaves_the_reading_out_of_the_fit(log):
+    """A struck reading stays in the file but not in the fit: the answer equals the log without it (§20)."""
+    run_json("trim", "add", log, "--measured", "9.8uH@28")  # a slip: 98 µH typed as 9.8 µH
+    run_json("trim", "add", log, "--measured", "96uH@27")
+    document = run_json("trim", "strike", log, 2, "--why", "typed 9.8 for 98")
+    result = document["result"]
+    assert result["al_H"] == pytest.approx(closed_al([(55e-6, 20), (96e-6, 27)]), rel=1e-12)
+    without = run_json("trim", "start", log.parent / "without.json", "--target", "100uH", "--tolerance", "2%",
+                       "--measured", "55uH@20", "--measured", "96uH@27")["result"]
+    for key in ("turns_now", "turns", "turns_exact", "turns_change", "turns_range", "uncertainty", "al_H"):
+        assert result[key] == without[key], key
+    assert [reading["residual"] is None for reading in result["readings"]] == [False, True, False]
+    kept = json.loads(log.read_text())["readings"][1]
+    assert kept["inductance_H"] == pytest.approx(9.8e-6) and kept["struck"]["why"] == "typed 9.8 for 98"
+    assert kept["struck"]["time"]
+    text = run("trim", "show", log).stdout
+    assert "reading 2       9.800 μH at 28 turns  struck out" in text and "typed 9.8 for 98" in text
+
+
+@pytest.mark.parametrize("number, fragment", [
+    pytest.param(1, "reading 1 was struck out", id="already-struck"),
+    pytest.param(3, "from 1 to 2", id="missing"),
+    pytest.param(0, "from 1 to 2", id="zero"),
+])
+def test_strike_bad_number_is_one_line_and_keeps_the_log(log, number, fragment):
+    """Striking a struck or missing reading: exit 2, one line; the log byte-identical."""
+    run_json("trim", "add", log, "--measured", "96uH@27")
+    assert run("trim", "strike", log, 1).exit_code == 0
+    before = log.read_bytes()
+    one_line_error(run("trim", "strike", log, number), 2, fragment)
+    assert log.read_bytes() == before
+
+
+def test_striking_every_reading_leaves_no_step(log):
+    """With nothing left to fit the log says so and asks for a reading; show agrees."""
+    document = run_json("trim", "strike", log, 1)
+    assert "turns" not in document["result"] and document["result"]["readings"][0]["struck"] is not None
+    text = run("trim", "show", log).stdout
+    assert "every reading struck out" in text and f"coilplan trim add {log} --measured L@N" in text
+    one_line_error(run("trim", "show", log, "--plot", log.parent / "p.svg"), 2, "--plot")
+
+
+def test_remeasure_at_the_same_turns_is_averaged(log):
+    """A second reading at 28 turns is kept beside the first; the fit sees their mean (one point per count)."""
+    run_json("trim", "add", log, "--measured", "104uH@28")
+    document = run_json("trim", "add", log, "--measured", "100uH@28", "--note", "leads shortened")
+    result = document["result"]
+    assert result["al_H"] == pytest.approx(closed_al([(55e-6, 20), (102e-6, 28)]), rel=1e-12)  # mean 102 µH
+    assert result["points"][-1]["readings"] == [2, 3] and result["points"][-1]["inductance_H"] == pytest.approx(102e-6)
+    assert any("averaged" in text and "readings 2 and 3" in text for text in result["notices"])
+    kept = [r["inductance_H"] for r in json.loads(log.read_text())["readings"]]
+    assert kept == pytest.approx([55e-6, 104e-6, 100e-6])
+    mean = run_json("trim", "start", log.parent / "mean.json", "--target", "100uH", "--tolerance", "2%",
+                    "--measured", "55uH@20", "--measured", "102uH@28")["result"]
+    for key in ("turns_now", "turns", "turns_exact", "turns_change", "turns_range", "uncertainty"):
+        assert result[key] == mean[key], key
+
+
+def test_remeasure_after_going_back_is_the_coil_now(log):
+    """Turns put back to a count read before: its readings are averaged, and that count is the coil now."""
+    run_json("trim", "add", log, "--measured", "104uH@28")
+    result = run_json("trim", "add", log, "--measured", "56uH@20")["result"]
+    assert result["turns_now"] == 20
+    assert [point["turns"] for point in result["points"]] == [28, 20]
+
+
+def test_version_1_log_still_loads_and_is_written_as_version_2(tmp_path):
+    """A log written by the first schema (closed core) shows as before and is upgraded on the next change."""
+    path = tmp_path / "old.json"
+    path.write_text(json.dumps({
+        "schema": "coilplan-trim-log", "version": 1, "created": "2025-03-01T10:00:00Z",
+        "coil": {"name": "old choke", "model": "closed-core", "offset": False, "turn_length_m": None, "wire": None},
+        "target_H": 1e-4, "operating_frequency_Hz": None, "meter_frequency_Hz": None, "tolerance": 0.02,
+        "tolerance_assumed": False, "self_capacitance_F": None,
+        "readings": [{"inductance_H": 5.5e-5, "turns": 20, "time": "2025-03-01T10:05:00Z", "note": None}]}))
+    before = path.read_bytes()
+    shown = run_json("trim", "show", path)["result"]
+    assert (shown["turns"], shown["turns_change"]) == (27, 7)  # AL = 55 µH/20² (IEC 60205), N = 20·√(100/55)
+    assert path.read_bytes() == before
+    run_json("trim", "add", path, "--measured", "98uH@27")
+    document = json.loads(path.read_text())
+    assert document["version"] == 2 and [r["turns"] for r in document["readings"]] == [20, 27]
+    assert document["coil"]["name"] == "old choke"
+
+
+def test_names_and_notes_print_on_their_own_line(tmp_path):
+    """A name or note holding a newline or a terminal escape is shown escaped: the report keeps its lines."""
+    path = tmp_path / "c.json"
+    result = run("trim", "start", path, "--target", "100uH", "--name", "coil\nA\x1b[31m", "--measured", "55uH@20")
+    assert result.exit_code == 0
+    assert result.stdout.splitlines()[0] == f"Trim log coil\\nA\\x1b[31m ({path}): closed core, to 100.0 μH"
+    text = run("trim", "add", path, "--measured", "98uH@27", "--note", "second\rline").stdout
+    assert "second\\rline" in text and "\r" not in text
