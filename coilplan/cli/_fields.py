@@ -116,11 +116,12 @@ def option_for(field: str, command: str | None = None) -> str:
     >>> option_for("capacitance or frequency", "tank"), option_for("--out", "kit")
     ('--capacitance or --frequency', '--out')
     """
-    own = COMMAND_OPTIONS.get(command, {})
+    own = COMMAND_OPTIONS.get(command or "", {})
     return " or ".join(own.get(name) or FIELD_OPTIONS.get(name, name) for name in field.split(" or "))
 
 
-def in_option_words(error: InvalidInputError | InfeasibleError, command: str | None = None):
+def in_option_words(error: InvalidInputError | InfeasibleError,
+                    command: str | None = None) -> InvalidInputError | InfeasibleError:
     """The error with its field named as the option that sets it in ``command``.
 
     An option name is kept as it is, and so is an error of a file (a plan or a log names its own keys).
