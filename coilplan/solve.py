@@ -27,7 +27,7 @@ import numpy as np
 from coilplan.errors import InfeasibleError, SolverError
 from coilplan.quantities import format_quantity
 
-__all__ = ["SEARCH_LIMIT", "TurnsSolution", "search_turns", "solve_turns"]
+__all__ = ["SEARCH_LIMIT", "TurnsSolution", "search_turns", "solve_apparent", "solve_turns"]
 
 #: Turns beyond which the solver does not search when the form sets no limit of its own: ten
 #: million, more than any coil wound by hand or on a bench machine (common practice, no source).
@@ -193,11 +193,25 @@ def solve_turns(form, target, *, rtol: float = 1e-12, max_iterations: int = 100)
     f_low = log_low - log_target
     f_high = log_high - log_target
 
-    # Illinois iteration on u = ln N, all targets at once.
-    a = np.full_like(targets, math.log(low_turns))
-    b = np.full_like(targets, math.log(high_turns))
-    fa, fb = f_low.copy(), f_high.copy()
-    side = np.zeros(targets.shape, dtype=np.int8)
+    u, iterations = _illinois(lambda u: _log_inductance(form, np.exp(u)) - log_target,
+                              np.full_like(targets, math.log(low_turns)), np.full_like(targets, math.log(high_turns)),
+                              f_low.copy(), f_high.copy(), rtol, max_iterations)
+    evaluations += iterations
+
+    turns_exact = np.exp(u)
+    return _whole_turns(form, targets, turns_exact, low_turns, high_turns,
+                        iterations, evaluations, np.ndim(target) == 0)
+
+
+def _illinois(function, a: np.ndarray, b: np.ndarray, fa: np.ndarray, fb: np.ndarray, rtol: float,
+              max_iterations: int) -> tuple[np.ndarray, int]:
+    """Roots of an increasing ``function`` of u = ln N, one per target, by the Illinois (modified regula falsi)
+    iteration inside the brackets [a, b] with fa ≤ 0 ≤ fb; (u at the roots, iterations).
+
+    ``function(u)`` takes the array of every target's u. A step that leaves the bracket or is not
+    finite is replaced by the bracket's midpoint.
+    """
+    side = np.zeros(a.shape, dtype=np.int8)
     u = a.copy()
     iterations = 0
     done = (fa == 0) | (fb == 0)
@@ -207,8 +221,7 @@ def solve_turns(form, target, *, rtol: float = 1e-12, max_iterations: int = 100)
         with np.errstate(divide="ignore", invalid="ignore"):
             u_new = (a * fb - b * fa) / (fb - fa)
         u_new = np.where(np.isfinite(u_new) & (u_new > a) & (u_new < b), u_new, 0.5 * (a + b))
-        f_new = _log_inductance(form, np.exp(u_new)) - log_target
-        evaluations += 1
+        f_new = function(u_new)
         right = f_new * fb > 0  # root lies in [a, u_new]
         left = ~right
         # Illinois: halve the stale end's function value when one end repeats
@@ -223,10 +236,7 @@ def solve_turns(form, target, *, rtol: float = 1e-12, max_iterations: int = 100)
         done = done | (np.abs(b - a) <= rtol) | (f_new == 0)
     if not np.all(done):
         raise SolverError(f"turns solver did not converge in {max_iterations} iterations")
-
-    turns_exact = np.exp(u)
-    return _whole_turns(form, targets, turns_exact, low_turns, high_turns,
-                        iterations, evaluations, np.ndim(target) == 0)
+    return u, iterations
 
 
 def _whole_turns(form, targets, turns_exact, low_turns, high_turns,
@@ -262,3 +272,89 @@ def _whole_turns(form, targets, turns_exact, low_turns, high_turns,
         converged=True,
         message=f"converged in {iterations} iterations",
     )
+
+
+def solve_apparent(form, targets, frequencies, drift=None, *, rtol: float = 1e-12,
+                   max_iterations: int = 200) -> TurnsSolution:
+    r"""Turns whose *apparent* inductance at each target's own frequency is the target, many at once.
+
+    Below self-resonance a coil shows L_app = L_e/(1 − ω²·L_e·C(N)), with L_e = d·L(N) its inductance with
+    the core's drift d at that frequency (docs/methods.md §10, §19). L_app rises with N to infinity at
+    self-resonance, so ln L_app(N) − ln T has one root below it, found by the same Illinois iteration
+    on u = ln N as :func:`solve_turns` uses (all targets at once, each with its own ω and d; beyond
+    self-resonance the function is taken as large, so the bracket closes from above). A target at 0 Hz
+    is the plain L(N) = T/d. Of the whole numbers either side the one closer in apparent inductance is
+    chosen, as :func:`solve_turns` does for L.
+
+    Parameters
+    ----------
+    form : CoilForm
+        With ``self_capacitance(turns)`` where any frequency is above zero.
+    targets, frequencies : array_like
+        Apparent inductances wanted (H) and the frequency each is wanted at (Hz; 0: low frequency).
+    drift : array_like, optional
+        The core's L(f)/L(f_ref) at each target's frequency (1: air, or a core without a known class).
+
+    Returns
+    -------
+    TurnsSolution
+        Arrays; the inductances are the apparent ones at the targets' frequencies. ``turns_exact`` is NaN
+        where no number of turns from the fewest to the most that fit shows the target below
+        self-resonance, and ``turns`` where no whole number shows a finite inductance.
+    """
+    targets = np.atleast_1d(np.asarray(targets, dtype=float))
+    omega2 = (2.0 * math.pi * np.broadcast_to(np.asarray(frequencies, dtype=float), targets.shape)) ** 2
+    drift = np.broadcast_to(np.asarray(1.0 if drift is None else drift, dtype=float), targets.shape)
+    lowest, top = float(form.min_turns()), float(search_turns(form)[0])
+    log_target = np.log(targets)
+    tuned = bool(np.any(omega2 > 0))
+
+    def excess(u: np.ndarray) -> np.ndarray:
+        """ln L_app(e^u) − ln T; beyond self-resonance a large positive number."""
+        turns = np.exp(u)
+        low = np.asarray(form.inductance(turns), dtype=float) * drift
+        capacitance = np.asarray(form.self_capacitance(turns), dtype=float) if tuned else 0.0
+        denominator = 1.0 - omega2 * low * capacitance
+        with np.errstate(divide="ignore", invalid="ignore"):
+            value = np.log(low / denominator) - log_target
+        return np.where(denominator > 0, value, 50.0)
+
+    # d·L(N) ≥ T means L_app(N) ≥ T: the low-frequency bracket of T/d closes the apparent one too
+    high = _upper_bracket(form, log_target - np.log(drift), lowest)[0]
+    a, b = np.full(targets.shape, math.log(lowest)), np.full(targets.shape, math.log(max(high, lowest)))
+    fa, fb = excess(a), excess(b)
+    reach = (fa <= 0) & (fb >= 0)
+    u, _ = _illinois(excess, a, b, np.where(reach, fa, -1.0), np.where(reach, fb, 1.0), rtol, max_iterations)
+    exact = np.where(reach, np.exp(u), np.nan)
+    return _closest_apparent(form, targets, exact, omega2, drift, lowest, top)
+
+
+def _closest_apparent(form, targets, exact, omega2, drift, lowest: float, top: float) -> TurnsSolution:
+    """The whole numbers either side of ``exact`` and their apparent L; the closer one chosen."""
+    columns = {name: np.full(targets.shape, np.nan) for name in ("turns", "below", "above", "shown", "l_below",
+                                                                  "l_above")}
+    where = np.flatnonzero(np.isfinite(exact))
+    nearest = np.round(exact[where])
+    whole = np.abs(exact[where] - nearest) <= 1e-9 * np.maximum(nearest, 1.0)
+    below = np.clip(np.where(whole, nearest, np.floor(exact[where])), lowest, top)
+    above = np.clip(np.where(whole, nearest, below + 1.0), lowest, top)
+    candidates = np.concatenate([below, above])
+    twice = np.concatenate([where, where])
+    low = np.asarray(form.inductance(candidates), dtype=float) * drift[twice]
+    capacitance = np.zeros(candidates.size)
+    if np.any(omega2[where] > 0):
+        capacitance = np.asarray(form.self_capacitance(candidates), dtype=float)
+    denominator = 1.0 - omega2[twice] * low * capacitance
+    with np.errstate(divide="ignore", invalid="ignore"):
+        apparent = np.where(denominator > 0, low / denominator, np.nan)
+    errors = np.nan_to_num(np.abs(apparent - targets[twice]), nan=np.inf)
+    take_above = errors[where.size:] < errors[: where.size]
+    chosen = np.where(take_above, apparent[where.size:], apparent[: where.size])
+    columns["turns"][where] = np.where(np.isfinite(chosen), np.where(take_above, above, below), np.nan)
+    columns["shown"][where] = chosen
+    columns["below"][where], columns["above"][where] = below, above
+    columns["l_below"][where], columns["l_above"][where] = apparent[: where.size], apparent[where.size:]
+    return TurnsSolution(target=targets, turns_exact=exact, turns=columns["turns"], turns_below=columns["below"],
+                         turns_above=columns["above"], inductance=columns["shown"],
+                         inductance_below=columns["l_below"], inductance_above=columns["l_above"],
+                         iterations=0, evaluations=0, converged=True, message="apparent inductance solved")

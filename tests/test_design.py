@@ -188,3 +188,56 @@ def test_the_kit_and_the_rod_command_agree_on_a_rod_calibrated_by_a_test_winding
                       "--turns", str(placed["turns"]))["result"]
     assert single["inductance_H"] == pytest.approx(placed["inductance_H"], rel=1e-9)
     assert single["model_factor"] == pytest.approx(placed["calibration_factor"], rel=1e-9)
+
+
+def test_the_batched_apparent_solve_is_the_apparent_forms_root():
+    """solve_apparent (many targets, each at its own frequency) finds the root the apparent form and the plain
+    solver find one target at a time: L(N)/(1 − ω²L(N)C(N)) = T (docs/methods.md §10), to the last bits."""
+    from coilplan.apparent import ApparentForm
+    from coilplan.solve import solve_apparent, solve_turns
+
+    coil = Solenoid.on_former(0.025, WIRE)
+    targets, frequencies = [10e-6, 4e-6, 25e-6, 10e-6], [7e6, 20e6, 3e6, 0.0]
+    batch = solve_apparent(coil, targets, frequencies)
+    for k, (target, frequency) in enumerate(zip(targets, frequencies, strict=True)):
+        one = solve_turns(ApparentForm(coil, frequency) if frequency else coil, target)
+        assert batch.turns_exact[k] == pytest.approx(one.turns_exact, rel=1e-12)
+        assert batch.turns[k] == one.turns and batch.inductance[k] == pytest.approx(one.inductance, rel=1e-12)
+
+
+KIT_FORMER = """
+[settings]
+packing = 0.9
+lead = "0mm"
+
+[[coil]]
+name = "tank"
+count = 1
+target = "10uH"
+at = "7MHz"
+tolerance = "5%"
+
+[[former]]
+diameter = "25mm"
+length = "60mm"
+count = 1
+
+[[reel]]
+wire = "0.5mm"
+length = "20m"
+"""
+
+
+def test_the_kit_and_the_solenoid_command_agree_at_the_operating_frequency(tmp_path):
+    """A coil for 10 µH at 7 MHz on a former: the kit's turns and inductances are the command's for the same
+    hand-wound coil (overall diameter / packing as the pitch), by the same batched apparent solve."""
+    plan = tmp_path / "plan.toml"
+    plan.write_text(KIT_FORMER, encoding="utf-8")
+    placed = run_json("kit", str(plan))["result"]["placements"][0]
+    overall = WIRE.overall_diameter
+    single = run_json("solenoid", "--diameter", f"{(0.025 + overall) * 1e3!r}mm", "--wire", "0.5mm",
+                      "--overall", f"{overall / 0.9 * 1e3!r}mm", "--max-length", "60mm", "--target", "10uH",
+                      "--at", "7MHz")["result"]
+    assert single["turns"] == placed["turns"]
+    assert single["inductance_H"] == pytest.approx(placed["inductance_H"], rel=1e-9)
+    assert single["apparent_inductance_H"] == pytest.approx(placed["apparent_inductance_H"], rel=1e-9)

@@ -4,10 +4,8 @@ r"""The kit planner's work: every coil on every stock item with every reel's wir
    core or bobbin as its coil form) is built once with each wire on the reels, and
    :func:`coilplan.solve.solve_turns` finds the turns of every coil type in one batched call.
    A coil with an operating frequency f is solved for its apparent inductance there,
-   :math:`L_{app} = L/(1 - \omega^2 L C)` (the small-R limit that :class:`coilplan.apparent.ApparentForm`
-   uses), by a fixed-point on the low-frequency target :math:`L = L_{app}/(1 + \omega^2 L_{app} C(N))`
-   (one correction and a second batched solve; the whole numbers round it are then checked at f directly
-   and the closest kept).
+   :math:`L_{app} = L/(1 - \omega^2 L C)`, by :func:`coilplan.solve.solve_apparent`, the same batched
+   solve the form commands use (the whole number closest in apparent inductance is kept).
    A winding is rejected when the turns do not fit, the coil self-resonates below f, the nearest
    whole number of turns misses the tolerance, a cored form (toroid, rod, gapped core) runs at or above
    :data:`coilplan.saturation.NEAR_SATURATION` of its saturation flux density at the coil's current,
@@ -34,10 +32,10 @@ from coilplan.core_frequency import core_drift, core_resistance_batch
 from coilplan.errors import CoilplanWarning, InfeasibleError, InvalidInputError
 from coilplan.kit.optimise import CLOSENESS_STEP, Q_STEPS, Solution, optimise
 from coilplan.kit.stock import StockItem, build_form, core_spectrum, plan_wires, stock_items, winding_limit
-from coilplan.physics.frequency import apparent_inductance_and_resistance, q_factor
+from coilplan.physics.frequency import q_factor
 from coilplan.quantities import format_length, format_quantity
 from coilplan.saturation import NEAR_SATURATION
-from coilplan.solve import solve_turns
+from coilplan.solve import solve_apparent
 
 __all__ = [
     "Candidate",
@@ -179,18 +177,6 @@ def _text(reason) -> str:
 # --- evaluation --------------------------------------------------------------------------------------
 
 
-def _apparent(form, turns, frequency, drift=1.0):
-    """L at the operating frequency (small-R limit; NaN at or above self-resonance), vectorised.
-
-    ``drift`` is L(f)/L(0) of the core at each frequency (1 for air or an unnamed material).
-    """
-    low = np.asarray(form.inductance(turns), dtype=float) * drift
-    capacitance = np.asarray(form.self_capacitance(turns), dtype=float)
-    omega2 = (2.0 * np.pi * frequency) ** 2
-    apparent, _ = apparent_inductance_and_resistance(frequency, low, 0.0, capacitance)
-    return np.where(1.0 - omega2 * low * capacitance > 0, apparent, np.nan), low
-
-
 def _single_turn_too_much(smallest: float, wanted: float) -> str:
     return (f"a single turn already gives {format_quantity(smallest, 'H')}, above the "
             f"{format_quantity(wanted, 'H')} wanted")
@@ -222,8 +208,9 @@ def _with_wire(label: str, reason) -> str:
 def _solve_on_form(form, targets, frequency, tolerance, current, drift=None):
     """Turns and figures for every coil on one form; (arrays, reasons) with NaN turns where rejected.
 
-    ``drift`` (per coil) is the core's L(f)/L(0) at each coil's frequency: the low-frequency target is
-    divided by it. A reason is kept as (function, arguments) and written only when a message needs it
+    The turns are the commands' own: :func:`coilplan.solve.solve_apparent`, the batched solve of the
+    apparent inductance at each coil's frequency with the core's drift there (``drift``, per coil:
+    L(f)/L(0)). A reason is kept as (function, arguments) and written only when a message needs it
     (most are never read).
     """
     count = targets.size
@@ -235,48 +222,27 @@ def _solve_on_form(form, targets, frequency, tolerance, current, drift=None):
         return turns, dict.fromkeys(range(count), f"not one turn fits: {form.limit_reason(1.0)}"), None
     smallest, largest = (float(v) for v in form.inductance(np.array([1.0, float(top)])))
     low_target = targets / drift
-    exact = np.full(count, np.nan)
-
-    def solve(selected):
-        selected = selected & (low_target >= smallest) & (low_target <= largest)
-        exact[selected] = np.nan
-        if selected.any():
-            exact[selected] = np.atleast_1d(solve_turns(form, low_target[selected]).turns_exact)
-
-    solve(np.ones(count, dtype=bool))
-    tuned = (frequency > 0) & np.isfinite(exact)
-    if tuned.any() and hasattr(form, "self_capacitance"):  # one fixed-point correction for the self-capacitance
-        capacitance = np.asarray(form.self_capacitance(exact[tuned]), dtype=float)
-        omega2 = (2.0 * np.pi * frequency[tuned]) ** 2
-        low_target[tuned] = targets[tuned] / (1.0 + omega2 * targets[tuned] * capacitance) / drift[tuned]
-        solve(tuned)
+    at = frequency if hasattr(form, "self_capacitance") else np.zeros(count)
+    solution = solve_apparent(form, targets, at, drift)
     for index in np.flatnonzero(low_target < smallest).tolist():
         reasons[index] = (_single_turn_too_much, smallest, float(targets[index]))
     for index in np.flatnonzero(low_target > largest).tolist():
         reasons[index] = (_beyond_the_form, float(targets[index]), largest, form, top)
-    inside = np.isfinite(exact)
-    if not inside.any():
+    unreached = ~np.isfinite(solution.turns) & ~np.isin(np.arange(count), list(reasons))
+    for index in np.flatnonzero(unreached).tolist():
+        reasons[index] = (_self_resonant, float(frequency[index]), int(min(top, np.nan_to_num(
+            solution.turns_above[index], nan=top))))
+    where = np.flatnonzero(np.isfinite(solution.turns) & ~np.isin(np.arange(count), list(reasons)))
+    if where.size == 0:
         return turns, reasons, None
-    where = np.flatnonzero(inside)
-    f = frequency[where]
-    wanted = targets[where]
-    # the whole numbers round the solution (two more either side absorb what the one correction leaves)
-    base = np.floor(exact[where] + 1e-9)
-    trial = np.clip(base[None, :] + np.arange(-1.0, 3.0)[:, None], 1.0, float(top))
-    trial_apparent = np.vstack([_apparent(form, row, f, drift[where])[0] for row in trial])
-    errors = np.nan_to_num(np.abs(trial_apparent - wanted), nan=np.inf)
-    best_row = np.argmin(errors, axis=0)
-    columns = np.arange(where.size)
-    chosen = trial[best_row, columns]
-    apparent = trial_apparent[best_row, columns]
-    closeness = np.abs(apparent - wanted) / wanted
-    resonant = ~np.isfinite(apparent)
-    for position in np.flatnonzero(resonant).tolist():
-        reasons[int(where[position])] = (_self_resonant, float(f[position]), int(chosen[position]))
-    for position in np.flatnonzero(~resonant & (closeness > tolerance[where])).tolist():
-        reasons[int(where[position])] = (_outside_tolerance, int(trial[1, position]), int(trial[2, position]),
-                                         float(trial_apparent[1, position]), float(trial_apparent[2, position]),
-                                         float(tolerance[where[position]]))
+    chosen = solution.turns[where]
+    apparent = solution.inductance[where]
+    closeness = np.abs(apparent - targets[where]) / targets[where]
+    for position in np.flatnonzero(closeness > tolerance[where]).tolist():
+        index = int(where[position])
+        reasons[index] = (_outside_tolerance, int(solution.turns_below[index]), int(solution.turns_above[index]),
+                          float(solution.inductance_below[index]), float(solution.inductance_above[index]),
+                          float(tolerance[index]))
     if hasattr(form, "flux_density") and form.saturation_flux_density:
         flux = np.asarray(form.flux_density(chosen, current[where]), dtype=float)
         limit = float(form.saturation_flux_density)

@@ -5,12 +5,14 @@ from __future__ import annotations
 import math
 import warnings
 
+import numpy as np
+
 from coilplan.apparent import ApparentForm, has_frequency_model
 from coilplan.calibrate import Measured
 from coilplan.errors import InfeasibleError, MeasurementWarning
 from coilplan.quantities import format_quantity
 from coilplan.rewind import rewind_fields
-from coilplan.solve import solve_turns
+from coilplan.solve import TurnsSolution, search_turns, solve_apparent, solve_turns
 
 __all__ = ["Measured", "check_fits", "given_capacitance", "turns_block", "wire_fields"]
 
@@ -39,7 +41,7 @@ def turns_block(form, *, turns: int | None, target: float | None, measured: Meas
         check_fits(form, int(turns))
         return {"turns": int(turns)}
     at_frequency = frequency is not None and has_frequency_model(form)
-    solution = solve_turns(ApparentForm(form, frequency) if at_frequency else form, target)
+    solution = _solve_at(form, target, frequency) if at_frequency else solve_turns(form, target)
     result = {
         "target_H": float(target),
         "target_is_apparent": at_frequency,
@@ -54,6 +56,20 @@ def turns_block(form, *, turns: int | None, target: float | None, measured: Meas
         result["target_frequency_Hz"] = float(frequency)
         result["target_inductance_at_turns_H"] = float(solution.inductance)  # apparent, at the frequency
     return result
+
+
+def _solve_at(form, target: float, frequency: float):
+    """The turns whose apparent inductance at ``frequency`` is ``target``: the batched solve the kit uses too
+    (:func:`coilplan.solve.solve_apparent`). A target beyond what a whole number of turns shows below
+    self-resonance is refused in the apparent form's words (:class:`coilplan.apparent.ApparentForm`).
+    """
+    solution = solve_apparent(form, target, frequency)
+    exact = float(solution.turns_exact[0])
+    if not math.isfinite(exact) or not math.isfinite(float(solution.turns[0])) \
+            or exact > search_turns(ApparentForm(form, frequency))[0] + 1e-9:
+        solve_turns(ApparentForm(form, frequency), target)  # raises InfeasibleError, saying why
+    return TurnsSolution(**{name: value[0] if isinstance(value, np.ndarray) else value
+                            for name, value in vars(solution).items()})
 
 
 def given_capacitance(measured: Measured | None) -> float | None:
