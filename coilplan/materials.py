@@ -358,12 +358,12 @@ def find_materials(text: str) -> list[Material]:
             or needle in core.description.lower()]
 
 
-def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
+def materials_for_permeability(mu_r: float, spread: float = 0.25,
                                option: str = "mu_r") -> list[PermeabilityMatch]:
     """The material classes consistent with a measured relative permeability, best first.
 
     A class fits when ``mu_r`` lies within its permeability range widened by the
-    factor ``1 + tolerance`` at each end:
+    factor ``1 + spread`` at each end:
 
     .. math::
 
@@ -387,7 +387,7 @@ def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
     ----------
     mu_r : float
         Measured relative permeability, above zero.
-    tolerance : float
+    spread : float
         How far beyond a class's range a measurement may lie, as a fraction
         (0.25: a factor 1.25), for meter error and the spread of the core.
     option : str
@@ -401,8 +401,8 @@ def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
     Raises
     ------
     InvalidInputError
-        ``mu_r`` not a finite number above zero (``option``), or ``tolerance`` not a
-        finite number of at least zero (``tolerance``).
+        ``mu_r`` not a finite number above zero (``option``), or ``spread`` not a
+        finite number of at least zero (``spread``).
 
     Examples
     --------
@@ -419,12 +419,12 @@ def materials_for_permeability(mu_r: float, tolerance: float = 0.25,
     if not (math.isfinite(measured) and measured > 0):
         raise InvalidInputError(option, "a relative permeability above zero, such as 125", mu_r)
     try:
-        spread = float(tolerance)
+        fraction = float(spread)
     except (TypeError, ValueError):
-        spread = math.nan
-    if not (math.isfinite(spread) and spread >= 0):
-        raise InvalidInputError("tolerance", "a fraction of at least 0, such as 0.25", tolerance)
-    widen = 1.0 + spread
+        fraction = math.nan
+    if not (math.isfinite(fraction) and fraction >= 0):
+        raise InvalidInputError("spread", "a fraction of at least 0, such as 0.25", spread)
+    widen = 1.0 + fraction
     matches = []
     for core in _materials().values():
         low, high = core.mu_range

@@ -212,7 +212,7 @@ def test_bobbin_reaches_what_a_single_layer_cannot():
     former = next(s for s, item in enumerate(result.evaluation.stock) if item.kind == "former")
     assert "above the" in result.evaluation.reason(0, former)
     wire = parse_wire("0.2mm", option="wire")
-    model = MultilayerCoil(former_diameter=6e-3, width=8e-3, wire=wire, packing=1 / PACKING, max_depth=6e-3,
+    model = MultilayerCoil(former_diameter=6e-3, width=8e-3, wire=wire, packing=PACKING, max_depth=6e-3,
                            lead=LEAD)
     assert placement.candidate.turns == solve_turns(model, 1e-3).turns
     fields = result_fields(result)["placements"][0]

@@ -361,12 +361,12 @@ def test_overlapping_ranges_return_both_classes():
     assert "cannot tell apart" in materials_for_permeability.__doc__
 
 
-def test_zero_tolerance_keeps_only_classes_that_contain_the_value():
-    """With tolerance 0 every match contains the measured value."""
-    matches = materials_for_permeability(100, tolerance=0)
+def test_zero_spread_keeps_only_classes_that_contain_the_value():
+    """With spread 0 every match contains the measured value."""
+    matches = materials_for_permeability(100, spread=0)
     assert [match.material.name for match in matches] == ["nizn-125", "fesial-powder"]
     assert all(match.inside for match in matches)
-    assert materials_for_permeability(170, tolerance=0) == []
+    assert materials_for_permeability(170, spread=0) == []
 
 
 @given(st.floats(min_value=0.5, max_value=30000), st.floats(min_value=0, max_value=1))
@@ -393,11 +393,11 @@ def test_bad_permeability_raises_on_mu(bad):
 
 
 @pytest.mark.parametrize("bad", [-0.1, math.nan, math.inf, "wide"])
-def test_bad_tolerance_raises_on_tolerance(bad):
-    """A negative or non-finite tolerance is refused on the tolerance."""
+def test_bad_spread_raises_on_spread(bad):
+    """A negative or non-finite spread is refused on the spread."""
     with pytest.raises(InvalidInputError) as caught:
-        materials_for_permeability(100, tolerance=bad)
-    assert caught.value.option == "tolerance"
+        materials_for_permeability(100, spread=bad)
+    assert caught.value.option == "spread"
 
 
 def test_identification_leaves_no_gap_between_the_classes():

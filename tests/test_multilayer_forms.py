@@ -21,7 +21,7 @@ def wire(text="0.3mm", grade="1"):
 
 @settings(max_examples=8, deadline=None)
 @given(turns=st.integers(2, 400), style=st.sampled_from(["layered", "staggered"]),
-       packing=st.floats(1.0, 1.2), width_mm=st.floats(3.0, 20.0))
+       packing=st.floats(1 / 1.2, 1.0), width_mm=st.floats(3.0, 20.0))
 def test_multilayer_inverse_round_trip(turns, style, packing, width_mm):
     """Solving for the inductance of N turns returns N (style.md: the inverse round trip)."""
     form = MultilayerCoil(former_diameter=0.01, width=width_mm / 1000, wire=wire(), style=style, packing=packing)
@@ -73,11 +73,11 @@ def test_wheeler_method_warns_outside_its_range():
 
 
 def test_bad_input_names_the_field():
-    """Errors name the field: a width below one turn, packing below 1, touching bare spiral turns."""
+    """Errors name the field: a width below one turn, packing above 1, touching bare spiral turns."""
     with pytest.raises(InvalidInputError, match=r"^width:"):
         MultilayerCoil(former_diameter=0.01, width=0.0001, wire=wire())
     with pytest.raises(InvalidInputError, match=r"^packing:"):
-        MultilayerCoil(former_diameter=0.01, width=0.01, wire=wire(), packing=0.9)
+        MultilayerCoil(former_diameter=0.01, width=0.01, wire=wire(), packing=1.1)
     with pytest.raises(InvalidInputError, match=r"^spacing:"):
         FlatSpiral(inner_diameter=0.01, wire=wire("0.5mm", "bare"))
 

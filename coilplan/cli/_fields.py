@@ -23,6 +23,7 @@ FIELD_OPTIONS = {
     "readings": "--measured",
     "meter_frequency": "--meter-freq",
     "tolerance": "--tolerance",
+    "spread": "--spread",
     "self_capacitance": "--self-capacitance",
     "turns_uncertainty": "--turns-uncertainty",
     "temperature": "--temperature",

@@ -27,7 +27,7 @@ from coilplan.report import aligned_rows, bullet_lines
 
 __all__ = ["materials"]
 
-_DEFAULT_TOLERANCE = 0.25
+_DEFAULT_SPREAD = 0.25
 _TYPICAL_NOTE = ("values are typical of each class, with its usual spread; a real core may differ, "
                  "so calibrate with a measurement")
 _OVERLAP_NOTE = ("permeability alone cannot tell apart classes whose ranges overlap: check a second "
@@ -202,10 +202,10 @@ def _dispersion_rows(core: Material) -> list[tuple[str, str]]:
 @click.argument("name", metavar="[MATERIAL]", required=False)
 @click.option("--mu", type=_PermeabilityType(), default=None, metavar="MU_R",
               help="A measured relative permeability: list the classes it fits, e.g. --mu 130.")
-@click.option("--tolerance", type=_FractionType(), default=_DEFAULT_TOLERANCE, show_default="25%",
+@click.option("--spread", type=_FractionType(), default=_DEFAULT_SPREAD, show_default="25%",
               help="How far beyond a class's range --mu may lie (meter error, core spread).")
 @json_option
-def materials(name, mu, tolerance, as_json):
+def materials(name, mu, spread, as_json):
     """Generic core material classes: permeability, saturation, resistivity, frequency range.
 
     With no MATERIAL, list the classes. With a MATERIAL (e.g. nizn-125), show that
@@ -215,13 +215,13 @@ def materials(name, mu, tolerance, as_json):
     """
     if name is not None and mu is not None:
         raise InvalidInputError("--mu", "either MATERIAL or --mu, not both", None)
-    inputs = {"material": name, "mu": mu, "tolerance": tolerance if mu is not None else None}
+    inputs = {"material": name, "mu": mu, "spread": spread if mu is not None else None}
     notes = [_TYPICAL_NOTE]
     cautions: list[str] = []
     with captured_warnings() as warnings_:
         if mu is not None:
-            matches = materials_for_permeability(mu, tolerance)
-            result = {"mu_measured": mu, "tolerance": tolerance,
+            matches = materials_for_permeability(mu, spread)
+            result = {"mu_measured": mu, "spread": spread,
                       "materials": [_match_result(match) for match in matches]}
             notes.append(_OVERLAP_NOTE)
             cautions.append(salvaged_mains_caution())
@@ -236,7 +236,7 @@ def materials(name, mu, tolerance, as_json):
     def render(_: dict) -> list[str]:
         if mu is not None:
             title = (f"Classes consistent with a relative permeability of {mu:g} "
-                     f"(each range widened by {tolerance * 100:g} %), best fit first:")
+                     f"(each range widened by {spread * 100:g} %), best fit first:")
             if not matches:
                 lines = [title, "  none: check the measurement (turns, core size, meter frequency)"]
             else:

@@ -21,8 +21,9 @@ LENGTH = QuantityType("m")
 @click.option("--width", type=LENGTH, required=True, help="Axial winding width between the cheeks, e.g. 8mm.")
 @click.option("--style", type=click.Choice(["layered", "staggered"]), default="layered", show_default=True,
               help="Turns directly above turns, or every second layer in the grooves (orthocyclic).")
-@click.option("--packing", type=click.FloatRange(min=1.0, max=2.0), default=1.0, show_default=True,
-              help="Stretch of the pitches for hand winding (common practice: 1.05-1.1 careful, 1.15-1.2 random).")
+@click.option("--packing", type=click.FloatRange(min=0.5, max=1.0), default=1.0, show_default=True,
+              help="Hand-winding packing: turns sit at the overall wire diameter divided by it, as in a kit plan "
+                   "(common practice: 0.9-0.95 careful, about 0.85 random).")
 @click.option("--max-depth", type=LENGTH, help="Radial depth of the bobbin window; the build must fit it.")
 @click.option("--method", type=click.Choice(list(MULTILAYER_METHODS)), default="filament", show_default=True,
               help="Exact turn-by-turn sum, or Wheeler's 1928 approximation.")

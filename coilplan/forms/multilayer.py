@@ -56,8 +56,10 @@ class MultilayerCoil(Rewindable):
         Simple layered (turns above turns) or staggered/orthocyclic (every second
         layer shifted half a pitch into the grooves).
     packing : float
-        Packing factor >= 1 stretching both pitches for hand winding (see
-        :mod:`coilplan.physics.multilayer` for the common-practice figures).
+        Hand-winding packing factor, 0.5 < p ≤ 1, as in a kit plan: the turns sit at the overall wire
+        diameter divided by it, along the layer and from layer to layer (1: machine-perfect; common
+        practice about 0.9 to 0.95 for careful hand winding, 0.85 random; see
+        :mod:`coilplan.physics.multilayer`, whose own factor is 1/p).
     max_depth : float, optional
         Radial depth of the bobbin window, m: the build must fit it.
     lead : float
@@ -80,8 +82,8 @@ class MultilayerCoil(Rewindable):
         positive(self.former_diameter, "former_diameter", "a former diameter")
         positive(self.width, "width", "a winding width")
         positive(self.max_depth, "max_depth", "a winding depth")
-        if not (math.isfinite(self.packing) and 1.0 <= self.packing <= 2.0):
-            raise InvalidInputError("packing", "a packing factor from 1 to 2", self.packing)
+        if not (math.isfinite(self.packing) and 0.5 <= self.packing <= 1.0):
+            raise InvalidInputError("packing", "a packing factor from 0.5 to 1", self.packing)
         if not (math.isfinite(self.lead) and self.lead >= 0):
             raise InvalidInputError("lead", "a lead allowance of zero or more", self.lead)
         if self.style not in get_args(LayerStyle):
@@ -100,8 +102,8 @@ class MultilayerCoil(Rewindable):
     # geometry -----------------------------------------------------------------
     @property
     def pitch(self) -> float:
-        """Axial pitch, m: overall wire diameter × packing."""
-        return self.wire.overall_diameter * self.packing
+        """Axial pitch, m: overall wire diameter / packing."""
+        return self.wire.overall_diameter / self.packing
 
     @property
     def layer_pitch(self) -> float:
@@ -198,7 +200,7 @@ class MultilayerCoil(Rewindable):
         if n not in self._cache:
             self._cache[n] = float(multilayer.multilayer_filament_inductance(
                 self.former_diameter / 2.0, self.width, self.wire.diameter, n,
-                overall_diameter=self.wire.overall_diameter, style=self.style, packing=self.packing))
+                overall_diameter=self.wire.overall_diameter, style=self.style, packing=1.0 / self.packing))
         return self._cache[n]
 
     def exact_inductance(self, turns):

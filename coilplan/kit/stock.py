@@ -182,7 +182,7 @@ def build_form(item: StockItem, wire: Wire, settings):
         return WholeTurns(_rod(spec, wire, settings, item.scale))
     if item.kind == "bobbin":
         return MultilayerCoil(former_diameter=spec.diameter, width=spec.width, wire=wire, style=spec.style,
-                              packing=1.0 / settings.packing, max_depth=spec.depth, lead=settings.lead)
+                              packing=settings.packing, max_depth=spec.depth, lead=settings.lead)
     mu_r, bsat = _material(spec.material, settings.temperature_C)
     if item.kind == "gapped":
         return GappedCore(ae=spec.ae, le=spec.le, wire=hand, gap=spec.gap, mu_r=spec.mu if mu_r is None else mu_r,

@@ -48,7 +48,7 @@ COMMANDS = {
     "tank": ["--inductance", "--capacitance", "--frequency", "--band", "--capacitor", "--stray", "--resonance",
              "--padder", "--power", "--q"],
     "wire": ["--grade", "--temperature", "--density", "--overall", "--series"],
-    "materials": ["--mu", "--tolerance"],
+    "materials": ["--mu", "--spread"],
 }
 
 # A valid core for each command, so that random options also reach the physics, not only the parser.

@@ -61,7 +61,7 @@ def test_listing_json_matches_the_csv():
     document = flat_document(json.loads(result.stdout))
     assert list(document) == ["schema", "command", "inputs", "result", "warnings", "cautions"]
     assert document["command"] == "materials"
-    assert document["inputs"] == {"material": None, "mu": None, "tolerance": None}
+    assert document["inputs"] == {"material": None, "mu": None, "spread": None}
     items = document["result"]["materials"]
     assert [item["name"] for item in items] == list(ROWS)
     for item in items:
@@ -105,7 +105,7 @@ def test_identify_by_permeability_json():
     result = run("--mu", "130", "--json")
     assert result.exit_code == 0, result.output
     document = flat_document(json.loads(result.stdout))
-    assert document["inputs"] == {"material": None, "mu": 130.0, "tolerance": 0.25}
+    assert document["inputs"] == {"material": None, "mu": 130.0, "spread": 0.25}
     found = document["result"]["materials"]
     assert found[0]["name"] == "nizn-125" and found[0]["inside_range"] is True
     assert found[0]["ratio_to_typical"] == pytest.approx(130 / 125)
@@ -129,7 +129,7 @@ def test_identify_5000_text_lists_only_mnzn():
 def test_identify_with_tolerance_percent():
     """--tolerance takes a percentage; 0% keeps only classes that contain the value."""
     wide = json.loads(run("--mu", "60", "--json").stdout)["result"]["materials"]
-    narrow = json.loads(run("--mu", "60", "--tolerance", "0%", "--json").stdout)["result"]["materials"]
+    narrow = json.loads(run("--mu", "60", "--spread", "0%", "--json").stdout)["result"]["materials"]
     assert "nizn-40" in [item["name"] for item in wide]
     assert all(item["inside_range"] for item in narrow)
     assert [item["name"] for item in narrow] == ["fesial-powder", "iron-powder-power"]
@@ -152,8 +152,8 @@ def test_no_class_fits():
                  id="mu-zero"),
     pytest.param(("--mu", "nan"), "coilplan: error: --mu: expected a relative permeability above zero",
                  id="mu-nan"),
-    pytest.param(("--mu", "130", "--tolerance", "wide"), "coilplan: error: --tolerance: expected a fraction",
-                 id="bad-tolerance"),
+    pytest.param(("--mu", "130", "--spread", "wide"), "coilplan: error: --spread: expected a fraction",
+                 id="bad-spread"),
     pytest.param(("nizn-125", "--mu", "130"), "coilplan: error: --mu: expected either MATERIAL or --mu",
                  id="both"),
 ])

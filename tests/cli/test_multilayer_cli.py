@@ -77,7 +77,7 @@ def test_measured_calibration_and_frequency():
 @pytest.mark.parametrize(("args", "option", "code"), [
     (["multilayer", "--former", "10mm", "--width", "0.1mm", "--wire", "0.2mm", "--turns", "5"], "--width", 2),
     (["multilayer", "--former", "10mm", "--width", "8mm", "--wire", "0.2mm"], "--turns", 2),
-    (["multilayer", "--former", "10mm", "--width", "8mm", "--wire", "0.2mm", "--turns", "5", "--packing", "0.5"],
+    (["multilayer", "--former", "10mm", "--width", "8mm", "--wire", "0.2mm", "--turns", "5", "--packing", "1.5"],
      "--packing", 2),
     (["spiral", "--inner", "30mm", "--wire", "0.5mm", "--turns", "5"], "--spacing", 2),
     (["spiral", "--inner", "abc", "--wire", "0.5mm", "--spacing", "0", "--turns", "5"], "--inner", 2),
