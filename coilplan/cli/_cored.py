@@ -7,7 +7,7 @@ from dataclasses import dataclass
 
 import click
 
-from coilplan.cli._types import CountType, QuantityType, TemperatureType
+from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_quantity, parse_loss_factor, parse_measurement, parse_q_reading
 
@@ -48,20 +48,12 @@ def q_reading_type() -> PairType:
 
 
 def core_options(function):
-    """The options every cored command takes: turns/target, wire, core material, drive."""
+    """What a cored form command adds to the shared options: the core's material, AL or loss, and the drive."""
     options = [
-        click.option("--turns", type=CountType(), help="Turns wound (forward: gives the inductance)."),
-        click.option("--target", type=QuantityType("H"), help="Inductance wanted (inverse: gives the turns)."),
-        click.option("--wire", "wire_text", required=True, help="Bare diameter (0.5mm) or gauge (24awg, 26swg)."),
-        click.option("--grade", type=click.Choice(["1", "2", "3", "bare"]), default="1", show_default=True,
-                     help="Enamel grade (IEC 60317), or bare wire."),
-        click.option("--overall", type=LENGTH, help="Measured overall (insulated) wire diameter."),
         click.option("--mu", type=click.FloatRange(min=1.0, max=1e6),
                      help="Relative permeability of the core (1 to 1e6)."),
         click.option("--material", help="A generic material class (see: coilplan materials)."),
         click.option("--al", type=QuantityType("H/t2"), help="Known AL value, inductance per turn², e.g. 420nH."),
-        click.option("--measured", "measured", type=measurement_type(), multiple=True,
-                     help="A reading L@N on a test winding, e.g. 150uH@40 (repeatable): gives the AL."),
         click.option("--loss-factor", type=loss_factor_type(), metavar="tanδ/µi@f",
                      help="The core material's relative loss factor tanδ/µi at a frequency, e.g. 40e-6@1MHz "
                           "(a data sheet's figure): gives the core's loss at --at."),
@@ -75,11 +67,6 @@ def core_options(function):
         click.option("--ac-current", type=QuantityType("A", allow_zero=True), default="0A",
                      help="AC current amplitude (peak) on top of the DC."),
         click.option("--ac-voltage", type=QuantityType("V"), help="RMS sine voltage across the winding (with --at)."),
-        click.option("--at", "frequency", type=QuantityType("Hz"), help="Operating frequency (for --ac-voltage)."),
-        click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
-                     help="Working temperature: derates B_sat, gives a second resistance."),
-        click.option("--lead", type=QuantityType("m", allow_zero=True), default="0mm", show_default=True,
-                     help="Lead allowance per end, added to the wire to cut."),
     ]
     return functools.reduce(lambda wrapped, option: option(wrapped), reversed(options), function)
 

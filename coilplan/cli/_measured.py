@@ -11,13 +11,14 @@ from coilplan.errors import InvalidInputError
 from coilplan.request import DEFAULT_TOLERANCE, Reading, Request
 
 __all__ = [
-    "coil_options",
+    "form_options",
     "measurement_options",
     "readings_from",
     "request_from",
     "run_form",
     "test_winding_options",
     "tuning_options",
+    "winding_options",
 ]
 
 
@@ -50,9 +51,9 @@ def _stack(options):
     return lambda function: functools.reduce(lambda wrapped, option: option(wrapped), reversed(options), function)
 
 
-def coil_options(function):
-    """What every air-cored form command shares: turns or target, the wire, the leads and temperature,
-    readings of the coil in hand and the operating frequency."""
+def winding_options(function):
+    """What every form command shares: turns or target, the wire, the leads and temperature, readings of the
+    coil in hand and the operating frequency (one definition, so one name and unit per idea)."""
     from coilplan.cli._cored import measurement_type
     from coilplan.cli._types import CountType, TemperatureType
 
@@ -69,12 +70,24 @@ def coil_options(function):
         click.option("--lead", type=QuantityType("m", allow_zero=True), default="0mm", show_default=True,
                      help="Lead allowance per end, added to the wire to cut."),
         click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
-                     help="Winding temperature for a second DC resistance figure."),
+                     help="Working temperature of the winding: a second DC resistance; derates a core's B_sat."),
         click.option("--measured", "measured", type=measurement_type(), multiple=True,
-                     help="A reading L@N on this coil, e.g. 47uH@30 (repeatable): calibrates the model."),
+                     help="A reading L@N on the coil or a test winding, e.g. 47uH@30 (repeatable): calibrates "
+                          "the model (a core's AL, or the scale of a model whose shape matters)."),
         click.option("--at", "frequency", type=QuantityType("Hz"),
                      help="Operating frequency: the target is the inductance the coil shows there; adds SRF, R, Q."),
     ])(function)
+
+
+def form_options(cored: bool = False):
+    """Every option a form command shares, after its own geometry: the winding and readings, the core and
+    drive where it has a core, the meter, the test winding, the tuning, the plot and --json."""
+    from coilplan.cli._common import json_option, plot_option
+    from coilplan.cli._cored import core_options
+
+    shared = [winding_options, *([core_options] if cored else []), measurement_options, test_winding_options,
+              tuning_options, plot_option, json_option]
+    return _stack(shared)
 
 
 def test_winding_options(function):

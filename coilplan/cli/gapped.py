@@ -4,9 +4,8 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_options, resolve_core
-from coilplan.cli._measured import measurement_options, run_form, test_winding_options, tuning_options
+from coilplan.cli._cored import LENGTH, resolve_core
+from coilplan.cli._measured import form_options, run_form
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import GappedCore
@@ -26,12 +25,7 @@ __all__ = ["gapped"]
 @click.option("--no-fringing", is_flag=True, help="Leave out McLyman's fringing correction.")
 @click.option("--max-flux", type=QuantityType("T"),
               help=f"Design limit for the peak flux density; default {NEAR_SATURATION:.0%} of B_sat.")
-@core_options
-@measurement_options
-@test_winding_options
-@tuning_options
-@plot_option
-@json_option
+@form_options(cored=True)
 def gapped(**options):
     """Gapped core: AL = µ0·Ae/(gap + le/µr), with the fringing correction shown apart.
 

@@ -4,8 +4,7 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._measured import coil_options, measurement_options, run_form, test_winding_options, tuning_options
+from coilplan.cli._measured import form_options, run_form
 from coilplan.cli._types import QuantityType
 from coilplan.forms import MULTILAYER_METHODS, MultilayerCoil
 from coilplan.wire import parse_wire
@@ -16,7 +15,6 @@ LENGTH = QuantityType("m")
 
 
 @click.command()
-@coil_options
 @click.option("--former", type=LENGTH, required=True, help="Outside diameter of the former or bobbin core, e.g. 10mm.")
 @click.option("--width", type=LENGTH, required=True, help="Axial winding width between the cheeks, e.g. 8mm.")
 @click.option("--style", type=click.Choice(["layered", "staggered"]), default="layered", show_default=True,
@@ -27,11 +25,7 @@ LENGTH = QuantityType("m")
 @click.option("--max-depth", type=LENGTH, help="Radial depth of the bobbin window; the build must fit it.")
 @click.option("--method", type=click.Choice(list(MULTILAYER_METHODS)), default="filament", show_default=True,
               help="Exact turn-by-turn sum, or Wheeler's 1928 approximation.")
-@measurement_options
-@test_winding_options
-@tuning_options
-@plot_option
-@json_option
+@form_options()
 def multilayer(**options):
     """Multilayer air-core coil: layers of turns across a fixed width.
 

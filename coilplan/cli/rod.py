@@ -4,9 +4,8 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_options, resolve_core
-from coilplan.cli._measured import measurement_options, run_form, test_winding_options, tuning_options
+from coilplan.cli._cored import LENGTH, resolve_core
+from coilplan.cli._measured import form_options, run_form
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import RodCoil
@@ -24,12 +23,7 @@ __all__ = ["rod"]
 @click.option("--position", type=QuantityType("m", allow_zero=True, allow_negative=True), default="0mm",
               show_default=True, help="Offset of the coil's centre from the rod's centre.")
 @click.option("--max-length", type=LENGTH, help="Usable winding length; default the rod's length.")
-@core_options
-@measurement_options
-@test_winding_options
-@tuning_options
-@plot_option
-@json_option
+@form_options(cored=True)
 def rod(**options):
     """Coil on a ferrite rod: the rod's apparent permeability from a cylinder's demagnetising
     factor, and the coil's length, diameter and position on the rod.

@@ -4,8 +4,7 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._measured import coil_options, measurement_options, run_form, test_winding_options, tuning_options
+from coilplan.cli._measured import form_options, run_form
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SOLENOID_METHODS, Solenoid
@@ -29,7 +28,6 @@ def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
 
 
 @click.command()
-@coil_options
 @click.option("--former", type=LENGTH, help="Outside diameter of the former, e.g. 25mm.")
 @click.option("--diameter", type=LENGTH, help="Coil diameter to the wire centres (instead of --former).")
 @click.option("--pitch", type=LENGTH, help="Distance between turn centres; default close wound.")
@@ -40,11 +38,7 @@ def one_of(first: tuple[str, object], second: tuple[str, object]) -> None:
 @click.option("--former-permittivity", type=click.FloatRange(min=1.0, max=MAX_FORMER_PERMITTIVITY), default=1.0,
               show_default=True,
               help="Relative permittivity of the former, for the self-capacitance (solid polystyrene about 2.5).")
-@measurement_options
-@test_winding_options
-@tuning_options
-@plot_option
-@json_option
+@form_options()
 def solenoid(**options):
     """Single-layer air-core coil on a round former.
 

@@ -4,8 +4,7 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._measured import coil_options, measurement_options, run_form, test_winding_options, tuning_options
+from coilplan.cli._measured import form_options, run_form
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import SPIRAL_METHODS, FlatSpiral
@@ -17,7 +16,6 @@ LENGTH = QuantityType("m")
 
 
 @click.command()
-@coil_options
 @click.option("--inner", type=LENGTH, required=True, help="Inside diameter of the spiral, e.g. 30mm.")
 @click.option("--spacing", type=QuantityType("m", allow_zero=True),
               help="Gap between adjacent turns (0 for touching enamelled turns).")
@@ -25,11 +23,7 @@ LENGTH = QuantityType("m")
               help="Largest outside diameter the turns must fit in (gap 0 when --spacing is not given).")
 @click.option("--method", type=click.Choice(list(SPIRAL_METHODS)), default="filament", show_default=True,
               help="Exact turn-by-turn sum, or Wheeler's flat-spiral approximation.")
-@measurement_options
-@test_winding_options
-@tuning_options
-@plot_option
-@json_option
+@form_options()
 def spiral(**options):
     """Flat spiral coil of round wire from an inner diameter outwards.
 

@@ -4,9 +4,8 @@ from __future__ import annotations
 
 import click
 
-from coilplan.cli._common import json_option, plot_option
-from coilplan.cli._cored import LENGTH, core_options, resolve_core
-from coilplan.cli._measured import measurement_options, run_form, test_winding_options, tuning_options
+from coilplan.cli._cored import LENGTH, resolve_core
+from coilplan.cli._measured import form_options, run_form
 from coilplan.cli._types import QuantityType
 from coilplan.forms import Toroid
 from coilplan.wire import parse_wire
@@ -22,12 +21,7 @@ __all__ = ["toroid"]
               help="Leg of a 45° chamfer on the ring's edges.")
 @click.option("--layers", type=click.Choice(["one", "many"]), default="one", show_default=True,
               help="One layer on the inside circumference, or layer on layer.")
-@core_options
-@measurement_options
-@test_winding_options
-@tuning_options
-@plot_option
-@json_option
+@form_options(cored=True)
 def toroid(**options):
     """Ring core (toroid) of rectangular section: AL by IEC 60205, turns, fit and saturation.
 
