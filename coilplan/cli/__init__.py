@@ -71,6 +71,8 @@ class _CoilplanGroup(click.Group):
         except click.exceptions.NoArgsIsHelpError as error:  # bare `coilplan`: the help, as asked
             click.echo(error.ctx.get_help() if error.ctx else error.format_message())
             code = 0
+        except click.MissingParameter as error:
+            code = _fail(_missing_text(error), 2)
         except click.BadParameter as error:
             code = _fail(_bad_parameter_text(error), 2)
         except click.UsageError as error:
@@ -106,6 +108,19 @@ def _bad_parameter_text(error: click.BadParameter) -> str:
     else:
         name = error.param_hint or "value"
     return f"{name}: {error.message}"
+
+
+def _missing_text(error: click.MissingParameter) -> str:
+    """A required option or argument left out: its name, what it expects, and where the help is."""
+    param, where = error.param, error.ctx.command_path if error.ctx else "coilplan"
+    if param is None:
+        return f"a required value is missing (see '{where} --help')"
+    if isinstance(param, click.Option):
+        name = max(param.opts, key=len)
+        wanted = (param.help or param.type.name).rstrip(".")
+        return f"{name}: expected {wanted[:1].lower() + wanted[1:]}; it is required (see '{where} --help')"
+    name = param.human_readable_name
+    return f"{name}: expected the {name.lower().replace('_', ' ')} argument; it is required (see '{where} --help')"
 
 
 def _fail(message: str, code: int) -> int:
