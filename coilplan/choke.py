@@ -52,6 +52,11 @@ def design_choke(core: GappedCore, target: float, peak_current: float,
     InfeasibleError
         When the turns the flux needs do not fit the window.
     """
+    if not max_flux_density > 0:  # a material past its Curie point: B_sat is zero there
+        raise InfeasibleError(f"the flux-density limit is {format_quantity(max_flux_density, 'T')}: at this "
+                              f"temperature the core is past its Curie point and carries no flux, so no number of "
+                              f"turns carries {format_quantity(peak_current, 'A')}; work it cooler",
+                              option="temperature")
     flux_turns = target * peak_current / (max_flux_density * core.ae)
     ungapped_al = float(gapped_al(core.ae, core.le, 0.0, core.mu_r))
     al_turns = math.sqrt(target / ungapped_al)

@@ -265,6 +265,11 @@ def parse_quantity(text: str, unit: str, option: str = "value", *,
     return value
 
 
+#: The most digits a count is read with: a trillion turns is beyond any coil, and Python refuses to turn
+#: strings of thousands of digits into numbers (common practice, no source).
+MAX_COUNT_DIGITS = 12
+
+
 def parse_count(text: str, option: str = "value", *, minimum: int = 1) -> int:
     """Read a whole count such as a number of turns.
 
@@ -276,6 +281,9 @@ def parse_count(text: str, option: str = "value", *, minimum: int = 1) -> int:
     stripped = str(text).strip()
     if not re.fullmatch(r"[+-]?\d+", stripped):
         raise InvalidInputError(option, f"a whole number of at least {minimum}", text)
+    if len(stripped.lstrip("+-0")) > MAX_COUNT_DIGITS:  # read no further: no coil has such a count
+        raise InvalidInputError(option, f"a whole number of at least {minimum} with at most {MAX_COUNT_DIGITS} "
+                                f"digits", text)
     value = int(stripped)
     if value < minimum:
         raise InvalidInputError(option, f"a whole number of at least {minimum}", text)

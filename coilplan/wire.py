@@ -181,6 +181,8 @@ def parse_awg_gauge(text: str, option: str = "gauge") -> float:
     """
     expected = "an AWG gauge from 4/0 (0000) to 56, whole or half, such as 24awg"
     stripped = str(text).strip().lower()
+    if len(stripped) > 6:  # read no further: no gauge is written with so many characters
+        raise _gauge_error(option, expected, text, "no gauge is written with so many digits")
     if re.fullmatch(r"0+", stripped):
         number = 1.0 - len(stripped)
     elif match := re.fullmatch(r"([1-9])\s*/\s*0", stripped):
@@ -272,7 +274,7 @@ def _swg_name(text: str, option: str) -> str:
     else:
         raise _gauge_error(option, expected, text)
     if name not in table:
-        raise _gauge_error(option, expected, text, f"there is no SWG {name}")
+        raise _gauge_error(option, expected, text, "no such SWG gauge" if len(name) > 6 else f"there is no SWG {name}")
     return name
 
 
@@ -612,6 +614,9 @@ def _awg_label(number: float) -> str:
 _SERIES_WORDS = ("awg", "swg")
 _WIRE_EXPECTED = "a wire such as 24awg, 26swg or a bare diameter such as 0.5mm"
 _GAUGE_BEFORE = re.compile(r"#?\s*([\d./\s]*?)\s*(awg|swg)")
+#: The most strands read in a litz wire: bundles of a few thousand strands are made; ten thousand leaves
+#: room (common practice, no source).
+MAX_LITZ_STRANDS = 10000
 _LITZ = re.compile(r"(\d+)\s*[x\u00d7]\s*(.+?)(?:\s*litz)?")
 #: Fill of a bundle of round strands in its circle (hexagonal packing, π/(2√3)); a real
 #: bundle is looser, so the overall diameter here is the smallest (common practice, no source).
@@ -620,9 +625,11 @@ _BUNDLE_FILL = math.pi / (2.0 * math.sqrt(3.0))
 
 def _litz(match, *, raw_text: str, grade: str, overall: float | None, option: str) -> Wire:
     """``40x0.1mm`` or ``40x38awg``: n enamelled strands, each read as a wire of its own."""
-    strands = int(match.group(1))
-    if strands < 2:
-        raise InvalidInputError(option, "litz as strands×strand, such as 40x0.1mm, with 2 strands or more", raw_text)
+    count = match.group(1).lstrip("0")
+    strands = int(count) if len(count) <= 6 else MAX_LITZ_STRANDS + 1
+    if not 2 <= strands <= MAX_LITZ_STRANDS:
+        raise InvalidInputError(option, f"litz as strands×strand, such as 40x0.1mm, with 2 to {MAX_LITZ_STRANDS} "
+                                "strands", raw_text)
     strand = parse_wire(match.group(2), grade=grade, option=option)
     factor = math.sqrt(strands / _BUNDLE_FILL)
     bundle = strand.diameter * factor

@@ -282,7 +282,10 @@ def _drive_rows(result: dict) -> list[tuple[str, ...]]:
     if parts:
         rows += [("peak flux density", format_quantity(result["flux_density_T"], "T", 3), " + ".join(parts)),
                  ("current density", f"{result['current_density_A_per_mm2']:.3g} A/mm²", "RMS in the copper")]
-    if limit:
+    if limit == 0:
+        rows.append(("saturates at", "0 T", f"at {result['temperature_C']:g} °C the core is past its Curie point: "
+                                            "it carries no flux and gives no inductance of its own"))
+    elif limit:
         rows.append(("saturates at", format_quantity(limit, "T", 3), f"at {result['temperature_C']:g} °C"))
         if parts:
             margin = result["saturation_margin"]
