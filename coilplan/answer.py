@@ -215,13 +215,17 @@ def json_schema() -> dict[str, Any]:
                        "properties": {"name": {"const": SCHEMA_NAME}, "version": {"const": SCHEMA_VERSION}}},
             "command": {"type": "string"},
             "inputs": {"type": "object"},
-            "result": {"type": "object"},
+            "result": {"type": ["object", "null"]},
             "warnings": text_list,
             "cautions": text_list,
+            "error": {"type": "object", "required": ["message", "exit_status"], "additionalProperties": False,
+                      "properties": {"message": {"type": "string"}, "exit_status": {"const": 1},
+                                     "achievable_H": {"type": ["array", "null"], "items": {"type": "number"}}}},
         },
         "if": {"properties": {"command": {"enum": list(FORM_COMMANDS)}}},
-        "then": {"properties": {"result": {"type": "object", "additionalProperties": False, "properties": parts,
-                                           "required": ["wind"]}}},
+        "then": {"properties": {"result": {"anyOf": [
+            {"type": "null"},
+            {"type": "object", "additionalProperties": False, "properties": parts, "required": ["wind"]}]}}},
     }
 
 

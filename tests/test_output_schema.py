@@ -68,3 +68,19 @@ def test_the_schema_refuses_a_figure_outside_its_part():
 def test_every_figure_has_one_part_and_a_json_type():
     assert all(part and kind in ("number", "integer", "boolean", "string", "array", "object")
                for part, kind in FIGURES.values())
+
+
+@pytest.mark.parametrize("line", [
+    "solenoid --former 25mm --wire 0.5mm --target 40uH --max-length 20mm",
+    "toroid --od 10mm --id 5mm --height 4mm --wire 1mm --mu 125 --target 1mH",
+    "rewind --measured 62uH@24 --target 1nH",
+], ids=["solenoid", "toroid", "rewind"])
+def test_a_request_that_cannot_be_done_still_prints_one_json_object(line):
+    """--json on an infeasible request: one document with no result and the reason, then the one line on stderr
+    and exit status 1."""
+    outcome = CliRunner().invoke(main, [*shlex.split(line), "--json"])
+    assert outcome.exit_code == 1
+    document = json.loads(outcome.stdout)
+    jsonschema.validate(document, SHIPPED, cls=jsonschema.Draft202012Validator)
+    assert document["result"] is None and document["error"]["message"].startswith("cannot be done: ")
+    assert outcome.stderr.startswith("coilplan: error: cannot be done: ") and outcome.stderr.count("\n") == 1

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import contextlib
 import functools
 
 import click
@@ -144,6 +145,26 @@ def request_from(options: dict) -> Request:
                    temperature=options.get("temperature", 20.0), drive=drive, core=core)
 
 
+@contextlib.contextmanager
+def infeasible_as_json(command: str, as_json: bool, warnings_: list[str]):
+    """With --json, a request that cannot be done still prints one JSON object (no result, the reason in
+    ``error``) before the one-line message on stderr and exit status 1."""
+    from coilplan.cli._common import context_inputs
+    from coilplan.cli._fields import in_option_words
+    from coilplan.errors import InfeasibleError
+    from coilplan.report.json_report import json_document
+
+    try:
+        yield
+    except InfeasibleError as error:
+        if as_json:
+            worded = in_option_words(error, command)
+            click.echo(json_document(command, context_inputs(), None, warnings_, (),
+                                     error={"message": f"cannot be done: {worded}", "exit_status": 1,
+                                            "achievable_H": list(error.achievable) if error.achievable else None}))
+        raise
+
+
 def run_form(command: str, form_from, options: dict, title: str) -> None:
     """The whole of a form command: its form (``form_from(options)``), the request, :func:`coilplan.pipeline.design`,
     the plot if asked, and the answer printed (text or JSON).
@@ -152,7 +173,7 @@ def run_form(command: str, form_from, options: dict, title: str) -> None:
     from coilplan.pipeline import design
     from coilplan.report.answer_text import answer_lines
 
-    with captured_warnings() as warnings_:
+    with captured_warnings() as warnings_, infeasible_as_json(command, options["as_json"], warnings_):
         answer = design(form_from(options), request_from(options))
     result = dict(answer.result)
     draw_impedance_plot(options.get("plot_path"), answer.form, result, answer.request.operating_frequency,

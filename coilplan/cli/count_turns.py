@@ -9,6 +9,7 @@ import click
 from coilplan import turn_count
 from coilplan.cautions import salvaged_mains_caution
 from coilplan.cli._common import captured_warnings, emit, json_option
+from coilplan.cli._measured import infeasible_as_json
 from coilplan.cli._types import CountType, PercentType, QuantityType, TemperatureType
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_length, parse_measurement
@@ -113,7 +114,7 @@ def count_turns(before, after, added, removed, test_winding_text, unknown, resis
     if all(value is None for value in data):
         raise click.UsageError(_NEEDS_TEXT)
     wire = parse_wire(wire_text) if wire_text is not None else None
-    with captured_warnings() as range_warnings:
+    with captured_warnings() as range_warnings, infeasible_as_json("count-turns", as_json, range_warnings):
         answer = turn_count.count_turns(
             before=before, after=after, added=change, test_winding=test_winding, unknown_inductance=unknown,
             resistance=resistance, wire=wire, turn_length=length, temperature_C=temperature,

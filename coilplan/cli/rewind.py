@@ -6,7 +6,7 @@ import click
 
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import measurement_type
-from coilplan.cli._measured import measurement_options
+from coilplan.cli._measured import infeasible_as_json, measurement_options
 from coilplan.cli._types import QuantityType
 from coilplan.errors import InvalidInputError
 from coilplan.forms import ClosedCore
@@ -38,7 +38,7 @@ def rewind(measured, target, offset, turn_length, wire_text, frequency, meter_fr
     if self_capacitance is not None and meter_freq is None and frequency is None:
         # the N² law has no self-resonance to report: the value only corrects readings and target
         raise InvalidInputError("--self-capacitance", "--meter-freq and/or --at to go with it", None)
-    with captured_warnings() as warnings_:
+    with captured_warnings() as warnings_, infeasible_as_json("rewind", as_json, warnings_):
         wire = parse_wire(wire_text) if wire_text else None
         form = ClosedCore(turn_length=turn_length, wire=wire, fit_offset=offset)
         request = Request(target=target, frequency=frequency, readings=tuple(Reading(v, n) for v, n in measured),

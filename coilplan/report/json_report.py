@@ -30,12 +30,14 @@ def clean(value: Any) -> Any:
     raise TypeError(f"cannot write {type(value).__name__} to JSON")
 
 
-def json_document(command: str, inputs: Mapping[str, Any], result: Mapping[str, Any],
-                  warnings: Sequence[str] = (), cautions: Sequence[str] = ()) -> str:
+def json_document(command: str, inputs: Mapping[str, Any], result: Mapping[str, Any] | None,
+                  warnings: Sequence[str] = (), cautions: Sequence[str] = (),
+                  error: Mapping[str, Any] | None = None) -> str:
     """Serialise one command's answer as the ``--json`` object (indented, keys in the order given).
 
     A coil's answer (:data:`coilplan.answer.FORM_COMMANDS`) is written in its parts
-    (:func:`coilplan.answer.parts_of`); every document names the schema it follows.
+    (:func:`coilplan.answer.parts_of`); every document names the schema it follows. A request that
+    cannot be done has no result (``null``) and says why in ``error``.
 
     Examples
     --------
@@ -58,14 +60,16 @@ def json_document(command: str, inputs: Mapping[str, Any], result: Mapping[str, 
     """
     from coilplan.answer import FORM_COMMANDS, SCHEMA_NAME, SCHEMA_VERSION, parts_of
 
-    if command in FORM_COMMANDS:
+    if command in FORM_COMMANDS and result is not None:
         result = parts_of(result)
     document = {
         "schema": {"name": SCHEMA_NAME, "version": SCHEMA_VERSION},
         "command": command,
         "inputs": clean(dict(inputs)),
-        "result": clean(dict(result)),
+        "result": None if result is None else clean(dict(result)),
         "warnings": [str(text) for text in warnings],
         "cautions": [str(text) for text in cautions],
     }
+    if error is not None:
+        document["error"] = clean(dict(error))
     return json.dumps(document, indent=2, ensure_ascii=False, allow_nan=False)
