@@ -1,6 +1,6 @@
 """``python -m coilplan`` runs the command line."""
 
-from coilplan.cli import main
+from coilplan._entry import run
 
 if __name__ == "__main__":
-    main(prog_name="coilplan")
+    run()

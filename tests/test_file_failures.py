@@ -185,8 +185,11 @@ def read_only(monkeypatch):
         folder.chmod(0o700)
 
 
-def one_line_error(result, *fragments):
-    assert result.exit_code == 1, result.stdout + result.stderr
+INTERRUPTED = 130  # 128 + SIGINT, as shells report Ctrl-C (common practice, no source)
+
+
+def one_line_error(result, *fragments, code=1):
+    assert result.exit_code == code, result.stdout + result.stderr
     assert result.stderr.startswith("coilplan: error: ") and result.stderr.count("\n") == 1, result.stderr
     for fragment in fragments:
         assert fragment in result.stderr, (fragment, result.stderr)
@@ -278,14 +281,14 @@ def kept(folder: Path, before: dict[str, bytes], target: Path, job) -> None:
 @pytest.mark.parametrize("kind", CRASHES)
 @pytest.mark.parametrize("job", JOBS, ids=lambda job: job.__name__)
 def test_crash_keeps_the_users_file(tmp_path, monkeypatch, job, kind):
-    """Ctrl-C part-way through the write or just before the rename: the old file stays, exit 1, no traceback."""
+    """Ctrl-C part-way through the write or just before the rename: the old file stays, exit 130, no traceback."""
     target, command = job(tmp_path)
     before = snapshot(tmp_path)
     fault = Fault(monkeypatch, target, kind)
     result = run(*command)
     monkeypatch.undo()
     assert fault.hit
-    assert result.exit_code == 1, result.stdout + result.stderr
+    assert result.exit_code == INTERRUPTED, result.stdout + result.stderr
     kept(tmp_path, before, target, job)
 
 
@@ -297,7 +300,7 @@ def test_crash_in_trim_says_which_file_was_kept(tmp_path, monkeypatch, job, kind
     Fault(monkeypatch, target, kind)
     result = run(*command)
     monkeypatch.undo()
-    one_line_error(result, str(target), "interrupted while writing it", "as it was")
+    one_line_error(result, str(target), "interrupted while writing it", "as it was", code=INTERRUPTED)
 
 
 @pytest.mark.parametrize("kind", FULL_DISKS)
@@ -430,7 +433,7 @@ def test_ctrl_c_while_a_form_plot_is_written_names_the_file(tmp_path, monkeypatc
     outcome = CliRunner().invoke(main, ["solenoid", "--former", "25mm", "--wire", "0.5mm", "--turns", "10",
                                         "--plot", str(picture)])
     lines = [line for line in outcome.stderr.splitlines() if line.strip()]
-    assert outcome.exit_code == 1 and len(lines) == 1
+    assert outcome.exit_code == INTERRUPTED and len(lines) == 1
     assert str(picture) in lines[0] and "interrupted" in lines[0] and not picture.exists()
     assert not list(tmp_path.iterdir())  # no temporary file left behind
 

@@ -17,7 +17,10 @@ import click
 
 from coilplan.errors import InfeasibleError, InvalidInputError
 
-__all__ = ["main"]
+__all__ = ["INTERRUPTED", "main", "run"]
+
+#: Exit status after Ctrl-C: 128 + SIGINT, as shells report it (common practice, no source).
+INTERRUPTED = 130
 
 # command name -> (module under coilplan.cli, function, one-line help)
 _COMMANDS: dict[str, tuple[str, str, str]] = {
@@ -84,9 +87,9 @@ class _CoilplanGroup(click.Group):
             code = _fail(f"cannot be done: {error}", 1)
         except click.ClickException as error:
             code = _fail(error.format_message(), error.exit_code)
-        except click.Abort as error:
+        except (click.Abort, KeyboardInterrupt) as error:  # Ctrl-C: never the status of "cannot be done"
             cause = error.__cause__ or error.__context__
-            code = _fail(str(cause) if type(cause).__name__ == "WriteInterrupted" else "aborted", 1)
+            code = _fail(str(cause) if type(cause).__name__ == "WriteInterrupted" else "interrupted", INTERRUPTED)
         except BrokenPipeError:  # output piped into `head`: not an error of ours
             code = 0
         except Exception as error:  # a defect of ours: still one line, never a traceback
@@ -98,6 +101,15 @@ class _CoilplanGroup(click.Group):
         if standalone_mode:
             sys.exit(code)
         return code
+
+
+def run() -> None:
+    """The ``coilplan`` script: the command line, with Ctrl-C during start-up a one-line exit too."""
+    try:
+        main(prog_name="coilplan")
+    except KeyboardInterrupt:
+        _fail("interrupted", INTERRUPTED)
+        sys.exit(INTERRUPTED)
 
 
 def _bad_parameter_text(error: click.BadParameter) -> str:

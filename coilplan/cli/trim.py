@@ -75,11 +75,12 @@ plot_option = click.option("--plot", "plot_path", type=LOG_FILE, callback=_plot_
 
 @contextlib.contextmanager
 def _write_errors():
-    """A file that cannot be written, or a write cut short by Ctrl-C: one line, exit status 1, the old file kept."""
+    """A file that cannot be written (exit status 1) or a write cut short by Ctrl-C (130): one line, the old
+    file kept."""
     try:
         yield
     except (LogWriteError, WriteInterrupted) as error:
-        raise click.ClickException(str(error)) from None
+        raise _one_line(str(error), error) from None
 
 
 @click.group(invoke_without_command=True)
@@ -271,7 +272,16 @@ def _write_plot(plot_path, picture: bytes | None, file, saved: bool = True) -> N
         write_atomically(plot_path, picture)
     except (LogWriteError, WriteInterrupted) as error:
         kept = f"; the log {file} was saved" if saved else ""
-        raise click.ClickException(f"--plot {error}{kept}") from None
+        raise _one_line(f"--plot {error}{kept}", error) from None
+
+
+def _one_line(text: str, error: Exception) -> click.ClickException:
+    """The message as a one-line exit: status 130 for an interrupt, 1 for a file that cannot be written."""
+    from coilplan.cli import INTERRUPTED
+
+    failure = click.ClickException(text)
+    failure.exit_code = INTERRUPTED if isinstance(error, WriteInterrupted) else 1
+    return failure
 
 
 def _result(file, log: TrimLog, step: TrimStep | None, plot_path) -> dict:
