@@ -30,7 +30,8 @@ import numpy as np
 
 from coilplan.core_frequency import core_drift, core_resistance_batch
 from coilplan.errors import CoilplanWarning, InfeasibleError, InvalidInputError
-from coilplan.kit.optimise import CLOSENESS_STEP, Q_STEPS, Solution, optimise
+from coilplan.kit.optimise import Solution, optimise
+from coilplan.kit.share_numbers import CLOSENESS_STEP, Q_STEPS
 from coilplan.kit.stock import StockItem, build_form, core_spectrum, plan_wires, stock_items, winding_limit
 from coilplan.physics.frequency import q_factor
 from coilplan.quantities import format_length, format_quantity
