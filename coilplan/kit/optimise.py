@@ -2,7 +2,7 @@ r"""How the stock and the wire are shared out: the lexicographic optimum under t
 
 **The problem.** Coil type c is wanted :math:`n_c` times, stock item s holds :math:`m_s`, reel r holds
 :math:`L_r` metres of one wire. A winding option o = (c, s, w) is a feasible winding of c on s with wire w
-(:mod:`coilplan.kit.assign`), with its piece of wire :math:`\ell_o` (m, margin included) and whole-number
+(:mod:`coilplan.kit.evaluation`), with its piece of wire :math:`\ell_o` (m, margin included) and whole-number
 costs. Choose whole numbers :math:`x_{o,r}` (units of o cut from reel r, a reel of o's wire) and
 :math:`u_c` (units of c left out) with
 
@@ -124,7 +124,7 @@ def optimise(evaluation, *, wire_step: float = 1e-3, solver: str = "auto", round
     Parameters
     ----------
     evaluation : Evaluation
-        From :func:`coilplan.kit.assign.evaluate_plan`.
+        From :func:`coilplan.kit.evaluation.evaluate_plan`.
     wire_step : float
         The wire unit of the objective, m (coarser where the plan is too large for it to stay exact).
     solver : {"auto", "milp", "core"}
