@@ -27,198 +27,41 @@ mean, one point per turn count (a notice says so). A mistyped reading is **struc
 (:func:`strike_reading`): it stays in the file, marked with the time and the reason, and is left out of
 the fit.
 
-The file is a versioned document (``"schema": "coilplan-trim-log"``, ``"version": 2``), validated on
-load; a file that does not validate is refused with its name and what is wrong, and never changed.
-Version-1 logs (closed cores, one reading per turn count, nothing struck) are read as they are and
-written as version 2 when next changed. Every write goes to a temporary file in the same folder, is
-flushed and synced to disk, and then replaces the log in one step (``os.replace``), so a crash leaves
-either the old log or the new one, never half of one.
-
-=====================  =======================  ==========================================
-file field             Python                   meaning
-=====================  =======================  ==========================================
-``target_H``           ``TrimLog.target_H``     inductance wanted, H (as read at the
-                                                operating frequency when one is given)
-``tolerance``          ``TrimLog.tolerance``    meter accuracy per reading, relative
-``readings[i]``        :class:`Reading`         one reading: inductance, turns, time, note,
-                                                and ``struck`` (when and why) if struck out
-``coil``               :class:`ClosedCoreCoil`  ``"model": "closed-core"``: name, ``offset``,
-                                                ``turn_length_m``, ``wire``
-``coil``               :class:`FormCoil`        ``"model": "form"``: name, ``command``,
-                                                ``arguments`` (a form command's own options)
-=====================  =======================  ==========================================
+The file, its versions and its fields are in :mod:`coilplan.session_model`; reading and writing it (atomic)
+in :mod:`coilplan.session_file`.
 """
 
 from __future__ import annotations
 
 import itertools
-import json
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 from datetime import UTC, datetime
-from pathlib import Path
 from statistics import fmean
-from typing import Annotated, Literal
 
 import numpy as np
-from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
+from pydantic import ValidationError
 
-from coilplan._validation import first_problem
 from coilplan.errors import InvalidInputError
-from coilplan.files import FileWriteError, write_atomically
-from coilplan.forms import ClosedCore
 from coilplan.quantities import format_quantity
-from coilplan.request import DEFAULT_TOLERANCE, Request
-from coilplan.request import Reading as MeterReading
+from coilplan.request import DEFAULT_TOLERANCE
 from coilplan.rewind import low_frequency_readings
-from coilplan.wire import parse_wire
+from coilplan.session_coil import coil_of
+from coilplan.session_file import _where, load_log, save_log
+from coilplan.session_model import ClosedCoreCoil, FormCoil, Reading, Struck, TrimLog
 
 __all__ = [
-    "SCHEMA",
-    "VERSION",
-    "ClosedCoreCoil",
-    "Coil",
     "FitPoint",
-    "FormCoil",
-    "LogExistsError",
-    "LogFileError",
-    "LogWriteError",
-    "Reading",
-    "Struck",
-    "TrimLog",
     "TrimStep",
     "add_reading",
-    "coil_of",
     "evaluate",
     "fit_points",
-    "load_log",
     "new_log",
     "record_reading",
     "record_strike",
-    "save_log",
-    "start_log",
     "strike_reading",
-    "write_atomically",
 ]
-
-#: The name every trim log carries in its ``schema`` field.
-SCHEMA = "coilplan-trim-log"
-#: The newest log version this coilplan reads and the one it writes.
-VERSION = 2
-
-PositiveFinite = Annotated[float, Field(gt=0, allow_inf_nan=False)]
-
-
-class LogFileError(InvalidInputError):
-    """A trim log that cannot be used: missing, not JSON, not a trim log, or a field that does not validate.
-
-    Parameters
-    ----------
-    file : str
-        The log's path as given.
-    problem : str
-        What is wrong, in one line.
-    """
-
-    def __init__(self, file: str, problem: str):
-        super().__init__(str(file), problem, None)
-        self.file = str(file)
-        self.problem = problem
-
-    def __str__(self) -> str:
-        return f"{self.file}: {self.problem}"
-
-
-class LogExistsError(LogFileError):
-    """``start`` found a file at the log's path and was not told to replace it."""
-
-
-#: The name this module has always used for a failed write.
-LogWriteError = FileWriteError
-
-
-class _Record(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
-
-
-class ClosedCoreCoil(_Record):
-    """A closed core of unknown geometry: a name, the lead offset, and what the wire change needs."""
-
-    name: str | None = None
-    model: Literal["closed-core"] = "closed-core"
-    offset: bool = False
-    turn_length_m: PositiveFinite | None = None
-    wire: str | None = None
-
-    @field_validator("wire")
-    @classmethod
-    def _known_wire(cls, text: str | None) -> str | None:
-        if text is not None:
-            try:
-                parse_wire(text, option="wire")
-            except InvalidInputError as error:
-                raise ValueError(f"expected {error.expected}") from None
-        return text
-
-    @property
-    def text(self) -> str:
-        return "closed core"
-
-
-class FormCoil(_Record):
-    """A form command's coil: the command's name and its arguments, e.g. ``solenoid --former 25mm --wire 0.5mm``."""
-
-    name: str | None = None
-    model: Literal["form"] = "form"
-    command: str
-    arguments: tuple[str, ...] = ()
-
-    @property
-    def text(self) -> str:
-        import shlex
-
-        return shlex.join([self.command, *self.arguments])
-
-
-#: What the log says about the coil (told apart by ``model``).
-Coil = Annotated[ClosedCoreCoil | FormCoil, Field(discriminator="model")]
-
-
-class Struck(_Record):
-    """When a reading was struck out, and why."""
-
-    time: datetime
-    why: str | None = None
-
-
-class Reading(_Record):
-    """One reading as the meter showed it: inductance at a whole number of turns, when, a note; struck or not."""
-
-    # the unit stays in the field name, as in the --json keys; hence the N815 (mixedCase) exemptions
-
-    inductance_H: PositiveFinite  # noqa: N815
-    turns: Annotated[int, Field(ge=1)]
-    time: datetime
-    note: str | None = None
-    struck: Struck | None = None
-
-
-class TrimLog(_Record):
-    """The whole log of one coil (the JSON file's content, validated)."""
-
-    schema_: Literal["coilplan-trim-log"] = Field(SCHEMA, alias="schema")
-    version: Literal[1, 2] = VERSION
-    created: datetime
-    coil: Coil = ClosedCoreCoil()
-    target_H: PositiveFinite  # noqa: N815
-    operating_frequency_Hz: PositiveFinite | None = None  # noqa: N815
-    meter_frequency_Hz: PositiveFinite | None = None  # noqa: N815
-    tolerance: Annotated[float, Field(gt=0, lt=1)] = DEFAULT_TOLERANCE
-    tolerance_assumed: bool = True
-    self_capacitance_F: PositiveFinite | None = None  # noqa: N815
-    readings: tuple[Reading, ...] = ()
-
 
 @dataclass(frozen=True)
 class FitPoint:
@@ -245,7 +88,7 @@ class TrimStep:
     Attributes
     ----------
     fields : dict
-        The answer's figures: :func:`coilplan.rewind.rewind_fields` (``turns_now``, ``turns``,
+        The answer's figures: :func:`coilplan.rewind_answer.rewind_fields` (``turns_now``, ``turns``,
         ``turns_change``, ``turns_range`` ...) and the form's own (``al_H``, ``offset_H`` and
         ``resistance_change_ohm`` for a closed core).
     warnings : tuple of str
@@ -400,48 +243,6 @@ def fit_points(log: TrimLog) -> tuple[FitPoint, ...]:
                  for turns, members in ordered)
 
 
-# --- the coil and the refit --------------------------------------------------------------------
-
-
-@dataclass(frozen=True)
-class _BareCore:
-    """A closed core of unknown geometry as the log describes it: the form and the request it makes."""
-
-    coil: ClosedCoreCoil
-
-    def request(self, *, target: float, frequency: float | None = None, meter_frequency: float | None = None,
-                tolerance: float | None = None, self_capacitance: float | None = None,
-                readings: Sequence[tuple[float, int]] = ()) -> Request:
-        return Request(target=target, frequency=frequency, meter_frequency=meter_frequency, tolerance=tolerance,
-                       self_capacitance=self_capacitance,
-                       readings=tuple(MeterReading(value, turns) for value, turns in readings))
-
-    def form_and_request(self, **fields):
-        wire = parse_wire(self.coil.wire, option="wire") if self.coil.wire else None
-        form = ClosedCore(turn_length=self.coil.turn_length_m, wire=wire, fit_offset=self.coil.offset)
-        return form, self.request(**fields)
-
-
-def coil_of(coil: ClosedCoreCoil | FormCoil):
-    """What the log's coil stands for: an object whose ``form_and_request(target=..., readings=...)`` gives the
-    uncalibrated form and the :class:`~coilplan.request.Request` for :func:`coilplan.pipeline.design`, and whose
-    ``request(...)`` gives the request alone (the same keywords).
-
-    A form command's coil is read by that command's own parser (:func:`coilplan.cli.coil_text.parse_coil`):
-    the description is the command's, so it is the command that reads it (imported only for such a log).
-
-    Raises
-    ------
-    InvalidInputError
-        A description its command refuses (:class:`coilplan.cli.coil_text.CoilTextError`).
-    """
-    if isinstance(coil, ClosedCoreCoil):
-        return _BareCore(coil)
-    from coilplan.cli.coil_text import parse_coil
-
-    return parse_coil(coil.command, coil.arguments)
-
-
 def evaluate(log: TrimLog) -> TrimStep:
     """Refit the coil's model to the readings and work out the next step, by :func:`coilplan.pipeline.design`.
 
@@ -530,117 +331,6 @@ def _target_notices(log: TrimLog, latest: FitPoint, fields: dict, conditions) ->
         text += (f" (the fit's nearest whole number is {fields['turns']} turns, a difference the meter "
                  f"cannot confirm)")
     return [text]
-
-
-# --- the file ----------------------------------------------------------------------------------
-
-
-def _where(location) -> str:
-    """A pydantic location as the file's field path (``coil.wire``: the coil's kind, a union tag, left out)."""
-    parts = [str(part) for index, part in enumerate(location)
-             if not (index and location[index - 1] == "coil" and part in ("closed-core", "form"))]
-    return ".".join(parts)
-
-
-def _problem(error: ValidationError) -> str:
-    """The first validation problem as 'field: message (got value)'; the count of any others."""
-    problem = first_problem(error)
-    where = _where(problem.location) or "the document"
-    return f"{where}: {problem.message}{problem.got}{problem.more}"
-
-
-def load_log(path) -> TrimLog:
-    """Read and validate a trim log; the file is only read.
-
-    A version-1 log is read as it is and comes back as version 2 (written so when next saved). A form
-    command's coil is checked by that command's parser (:func:`coil_of`).
-
-    Raises
-    ------
-    LogFileError
-        No such file, not UTF-8 JSON, not a trim log, written by a newer coilplan, a field that does not
-        validate (named, with the value found), or a coil description its command refuses.
-    """
-    path = Path(path)
-    try:
-        raw = path.read_bytes()
-    except FileNotFoundError:
-        raise LogFileError(path, "no trim log there (start one with: coilplan trim start)") from None
-    except IsADirectoryError:
-        raise LogFileError(path, "is a folder, not a trim log") from None
-    except OSError as error:
-        raise LogFileError(path, f"cannot read it ({error.strerror or error})") from None
-    try:
-        document = json.loads(raw.decode("utf-8"))
-    except UnicodeDecodeError:
-        raise LogFileError(path, "not a trim log (not UTF-8 text)") from None
-    except json.JSONDecodeError as error:
-        raise LogFileError(path, f"not a trim log: broken JSON at line {error.lineno} column {error.colno} "
-                                 f"({error.msg}); was it cut short?") from None
-    if not isinstance(document, dict) or document.get("schema") != SCHEMA:
-        found = document.get("schema") if isinstance(document, dict) else type(document).__name__
-        raise LogFileError(path, f"not a coilplan trim log (expected \"schema\": \"{SCHEMA}\"; found {found!r})")
-    version = document.get("version")
-    if isinstance(version, bool) or not isinstance(version, int) or version < 1:
-        raise LogFileError(path, f"version: expected a whole number from 1 (found {version!r})")
-    if version > VERSION:
-        raise LogFileError(path, f"written by a newer coilplan (log version {version}; this one reads up to "
-                                 f"{VERSION}): update coilplan to read it")
-    try:
-        log = TrimLog.model_validate_json(raw, strict=True)
-    except ValidationError as error:
-        raise LogFileError(path, _problem(error)) from None
-    if log.version == 1:
-        _check_version_1(path, log)
-        log = log.model_copy(update={"version": VERSION})
-    if isinstance(log.coil, FormCoil):
-        try:
-            coil_of(log.coil)
-        except InvalidInputError as error:
-            raise LogFileError(path, f"coil: {getattr(error, 'problem', error)}") from None
-    return log
-
-
-def _check_version_1(path, log: TrimLog) -> None:
-    """A version-1 log knew closed cores only, one reading per turn count, and nothing struck out."""
-    if not isinstance(log.coil, ClosedCoreCoil):
-        raise LogFileError(path, "coil.model: a version-1 log holds a closed core only (a form's coil needs "
-                                 "version 2)")
-    seen = set()
-    for index, reading in enumerate(log.readings):
-        if reading.struck is not None:
-            raise LogFileError(path, f"readings.{index}.struck: not in a version-1 log (needs version 2)")
-        if reading.turns in seen:
-            raise LogFileError(path, f"readings.{index}.turns: one reading per turn count in a version-1 log "
-                                     f"(repeated: {reading.turns})")
-        seen.add(reading.turns)
-
-
-def _document(log: TrimLog) -> bytes:
-    return (json.dumps(log.model_dump(mode="json", by_alias=True), indent=2, ensure_ascii=False,
-                       allow_nan=False) + "\n").encode("utf-8")
-
-
-def save_log(path, log: TrimLog) -> None:
-    """Write the log atomically over ``path`` (see :func:`write_atomically`)."""
-    write_atomically(path, _document(log))
-
-
-def start_log(path, log: TrimLog, *, force: bool = False) -> None:
-    """Write a new log; refuse when anything is at ``path`` unless ``force`` (then replace it atomically).
-
-    Raises
-    ------
-    LogExistsError
-        Something is already at ``path`` and ``force`` is false.
-    """
-    path = Path(path)
-    if path.is_dir():
-        raise LogFileError(path, "is a folder: give a file name for the trim log")
-    if path.exists() and not force:
-        raise LogExistsError(path, "a file is already there: give --force to start the log over (it will be "
-                                   "replaced), or choose another name")
-    save_log(path, log)
 
 
 def record_reading(path, inductance: float, turns: int, *, note: str | None = None,

@@ -11,9 +11,11 @@ import numpy as np
 import pytest
 
 from coilplan.kit import PlanFileError, parse_plan, plan_kit
-from coilplan.kit.assign import evaluate_plan
-from coilplan.kit.optimise import cost_levels, first_fit_decreasing, optimise
+from coilplan.kit.evaluation import evaluate_plan
+from coilplan.kit.optimise import optimise
 from coilplan.kit.outputs import bom_csv, card_files, kit_document, result_fields, summary_lines
+from coilplan.kit.share_assignment import first_fit_decreasing
+from coilplan.kit.share_numbers import cost_levels
 from coilplan.quantities import format_quantity
 from coilplan.solve import solve_turns
 

@@ -22,8 +22,8 @@ from coilplan.rewind import (
     closed_core_fit,
     low_frequency_inductance,
     model_fit,
-    rewind_fields,
 )
+from coilplan.rewind_answer import rewind_fields
 from coilplan.wire import parse_wire
 
 

@@ -10,21 +10,11 @@ import pytest
 
 from coilplan.errors import InfeasibleError, InvalidInputError
 from coilplan.forms import ClosedCore
-from coilplan.rewind import Conditions, closed_core_fit, low_frequency_readings, rewind_fields
-from coilplan.session import (
-    LogExistsError,
-    LogFileError,
-    LogWriteError,
-    add_reading,
-    evaluate,
-    load_log,
-    new_log,
-    record_reading,
-    record_strike,
-    save_log,
-    start_log,
-    strike_reading,
-)
+from coilplan.rewind import Conditions, closed_core_fit, low_frequency_readings
+from coilplan.rewind_answer import rewind_fields
+from coilplan.session import add_reading, evaluate, new_log, record_reading, record_strike, strike_reading
+from coilplan.session_file import load_log, save_log, start_log
+from coilplan.session_model import LogExistsError, LogFileError, LogWriteError
 
 
 def log_with(readings, **options):

@@ -17,27 +17,15 @@ from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._cored import measurement_type
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import CoilplanWarning, InvalidInputError
-from coilplan.files import WriteInterrupted
+from coilplan.files import WriteInterrupted, write_atomically
 from coilplan.quantities import format_quantity
 from coilplan.report.text import aligned_rows, bullet_lines, printable
 from coilplan.report.turns_rows import henry, rewind_rows
 from coilplan.request import DEFAULT_TOLERANCE
 from coilplan.rewind import low_frequency_readings
-from coilplan.session import (
-    ClosedCoreCoil,
-    LogWriteError,
-    TrimLog,
-    TrimStep,
-    add_reading,
-    evaluate,
-    fit_points,
-    load_log,
-    new_log,
-    save_log,
-    start_log,
-    strike_reading,
-    write_atomically,
-)
+from coilplan.session import TrimStep, add_reading, evaluate, fit_points, new_log, strike_reading
+from coilplan.session_file import load_log, save_log, start_log
+from coilplan.session_model import ClosedCoreCoil, LogWriteError, TrimLog
 from coilplan.wire import parse_wire
 
 __all__ = ["trim"]

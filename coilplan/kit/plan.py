@@ -1,10 +1,8 @@
-"""The kit plan file: the coils wanted, the stock on the shelf and the settings, read from TOML and validated.
+"""The kit plan file's records: the coils wanted, the stock on the shelf and the settings (pydantic models).
 
-Every value with a unit is written as text in the user's units (``"4.7uH"``, ``"12 mm"``) and read
-with :func:`coilplan.quantities.parse_quantity`; after validation the records hold SI floats. A plan
-that does not validate is refused with one line naming the file, the line where it can be found,
-the entry (``coil[2] 'osc-7M'``, counted from 1 as the file reads) and the field, with the text the
-user wrote.
+Every value with a unit is written as text in the user's units (``"4.7uH"``, ``"12 mm"``) and read by the
+field types of :mod:`coilplan.kit.plan_values`; after validation the records hold SI floats. The file is
+read and its problems placed (file, line, entry, field) by :mod:`coilplan.kit.plan_file`.
 
 =====================  ==================  =================================================
 table                  record              fields (SI after validation)
@@ -37,27 +35,33 @@ core with its bobbin) layers of turns round its centre leg, and a bobbin a multi
 
 from __future__ import annotations
 
-import functools
 import math
 import re
-import tomllib
-from pathlib import Path
 from typing import Annotated, Literal
 
-from pydantic import (
-    AfterValidator,
-    BaseModel,
-    BeforeValidator,
-    ConfigDict,
-    Field,
-    PrivateAttr,
-    ValidationError,
-    model_validator,
-)
+from pydantic import BaseModel, ConfigDict, Field, PrivateAttr, model_validator
 
-from coilplan._validation import first_problem
 from coilplan.errors import InvalidInputError
-from coilplan.quantities import parse_measurement, parse_quantity, parse_relative, parse_temperature
+from coilplan.kit.plan_values import (
+    AlValue,
+    Area,
+    Capacitance,
+    Count,
+    Current,
+    Fraction,
+    Frequency,
+    Grade,
+    Inductance,
+    Length,
+    LengthOrZero,
+    MaterialName,
+    Permeability,
+    Readings,
+    ReelLength,
+    Relative,
+    Temperature,
+    WireText,
+)
 
 __all__ = [
     "BobbinSpec",
@@ -72,8 +76,6 @@ __all__ = [
     "STOCK_FORMS",
     "Settings",
     "ToroidSpec",
-    "load_plan",
-    "parse_plan",
 ]
 
 #: The stock tables of a plan, in the order they are tried, and the coil form each carries.
@@ -114,131 +116,6 @@ class PlanFileError(InvalidInputError):
     def __str__(self) -> str:
         where = f"{self.file}, line {self.line}" if self.line is not None else self.file
         return f"{where}: {self.problem}"
-
-
-def _text_of(value, what: str, example: str) -> str:
-    if isinstance(value, bool) or not isinstance(value, str):
-        raise ValueError(f"expected {what} written as text with its unit, such as \"{example}\"")
-    return value
-
-
-def _checked(parse, *args, **kwargs):
-    """``parse(*args, **kwargs)``, its :class:`InvalidInputError` turned into pydantic's ``ValueError``."""
-    try:
-        return parse(*args, **kwargs)
-    except InvalidInputError as error:
-        raise ValueError(f"expected {error.expected}") from None
-
-
-def _read_text(parse, what: str, example: str):
-    """A validator reading the user's text with ``parse``.
-
-    Only what the file gives is validated (pydantic leaves the defaults, already SI, alone), so a bare
-    number, which would carry no unit, is refused like any other value not written as text.
-    """
-
-    def read(value):
-        return _checked(parse, _text_of(value, what, example))
-
-    return read
-
-
-def _quantity(unit: str, what: str, example: str, *, allow_zero: bool = False):
-    """A field read from the user's text in ``unit`` (SI float after validation)."""
-    return Annotated[float, BeforeValidator(_read_text(
-        functools.partial(parse_quantity, unit=unit, allow_zero=allow_zero), what, example))]
-
-
-_relative = _read_text(parse_relative, "a relative value", "5%")
-_temperature = _read_text(parse_temperature, "a temperature", "40C")
-
-
-def _count(value):
-    if isinstance(value, bool) or not isinstance(value, int) or value < 1:
-        raise ValueError("expected a whole number of at least 1")
-    return value
-
-
-#: A reel's length may go beyond the 100 m the general length parser accepts (a reel of fine wire holds
-#: hundreds of metres); the kit reads it itself, from 1 mm to 100 km.
-REEL_RANGE = (1e-3, 1e5)
-_REEL_NUMBER = re.compile(r"^\s*(\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?\s*(.*)$")
-
-
-def _reel_length(value):
-    """A reel's length, SI: the number times the unit, the unit read by parse_quantity from a thousandth of it."""
-    text = _text_of(value, "a length", "250m")
-    match = _REEL_NUMBER.match(text)
-    expected = "a reel length such as 250m (from 1 mm to 100 km)"
-    if match is None or not match.group(3).strip():
-        raise ValueError(f"expected {expected}")
-    per_unit = _checked(parse_quantity, "0.001" + match.group(3).strip(), "m") * 1000.0  # metres in one unit
-    exponent = match.group(2) or "0"
-    exponent = int(exponent) if len(exponent) <= 5 else 10**6  # no need to read a thousand-digit power
-    # a power beyond floats' reach is out of range either way (1e400 would overflow, 1e-400 vanish)
-    length = math.inf if abs(exponent) > 300 else float(match.group(1)) * 10.0**exponent * per_unit
-    if not (math.isfinite(length) and REEL_RANGE[0] <= length <= REEL_RANGE[1]):
-        raise ValueError(f"expected {expected}")
-    return length
-
-
-def _permeability(value):
-    if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value) or value < 1:
-        raise ValueError("expected a relative permeability of at least 1, as a plain number such as 125")
-    return float(value)
-
-
-def _fraction(value):
-    if isinstance(value, bool) or not isinstance(value, (int, float)) or not 0 < value < 1:
-        raise ValueError("expected a fraction of the turns between 0 and 1, as a plain number such as 0.25")
-    return float(value)
-
-
-def _readings(value):
-    """One ``"L@N"`` reading or a list of them -> ((H, turns), ...)."""
-    items = [value] if isinstance(value, str) else value
-    if not isinstance(items, (list, tuple)) or not items:
-        raise ValueError("expected a reading inductance@turns such as \"12uH@20\", or a list of them")
-    readings = []
-    for item in items:
-        text = _text_of(item, "a reading inductance@turns", "12uH@20")
-        readings.append(_checked(parse_measurement, text, "measured"))
-    if len({turns for _, turns in readings}) != len(readings):
-        raise ValueError("expected one reading per turn count (average repeated readings first)")
-    return tuple(readings)
-
-
-def _material_name(name: str) -> str:
-    from coilplan.materials import material
-
-    return _checked(material, name).name
-
-
-def _wire_text(text: str) -> str:
-    from coilplan.wire import parse_wire
-
-    _checked(parse_wire, text)
-    return text
-
-
-Length = _quantity("m", "a length", "12mm")
-LengthOrZero = _quantity("m", "a length", "20mm", allow_zero=True)
-ReelLength = Annotated[float, BeforeValidator(_reel_length)]
-Inductance = _quantity("H", "an inductance", "4.7uH")
-Capacitance = _quantity("F", "a capacitance", "100pF")
-Frequency = _quantity("Hz", "a frequency", "7MHz")
-Current = _quantity("A", "a current", "0.5A", allow_zero=True)
-AlValue = _quantity("H/t2", "an AL value", "20nH")
-Area = _quantity("m2", "an area", "50mm2")
-Permeability = Annotated[float, BeforeValidator(_permeability)]
-Fraction = Annotated[float, BeforeValidator(_fraction)]
-Readings = Annotated[tuple[tuple[float, int], ...], BeforeValidator(_readings)]
-MaterialName = Annotated[str, AfterValidator(_material_name)]
-WireText = Annotated[str, AfterValidator(_wire_text)]
-Grade = Literal["1", "2", "3", "bare"]
-Relative = Annotated[float, BeforeValidator(_relative)]
-Count = Annotated[int, BeforeValidator(_count)]
-Temperature = Annotated[float, BeforeValidator(_temperature)]
 
 
 class _Record(BaseModel):
@@ -488,7 +365,7 @@ class Plan(_Record):
         line = _line_of(self._text, where or table, None if where else index, name)
         return PlanFileError(self._file, f"{label}: {key}: {problem}", line)
 
-# --- reading the file --------------------------------------------------------------------------
+# --- where a key is in the file ----------------------------------------------------------------------
 
 _HEADER = re.compile(r"^\s*(\[\[?)\s*([A-Za-z_][\w-]*)\s*\]\]?")
 
@@ -512,95 +389,3 @@ def _line_of(text: str, table: str, index: int | None, field: str | None) -> int
         if inside and key is not None and key.match(line):
             return number
     return header_line
-
-
-def _entry(document: dict, loc: tuple) -> tuple[str, str | None, int | None, str | None]:
-    """(entry label, table, index, field) of a pydantic error location."""
-    if not loc:
-        return "the plan", None, None, None
-    table = str(loc[0])
-    if len(loc) >= 2 and isinstance(loc[1], int):
-        index = loc[1]
-        raw = document.get(table, [])
-        name = raw[index].get("name") if index < len(raw) and isinstance(raw[index], dict) else None
-        label = f"{table}[{index + 1}]" + (f" {name!r}" if isinstance(name, str) else "")
-        field = str(loc[2]) if len(loc) > 2 else None
-        return label, table, index, field
-    field = str(loc[1]) if len(loc) > 1 else None
-    return table, table, None, field
-
-
-def _problem(file: str, text: str, document: dict, error: ValidationError) -> PlanFileError:
-    found = first_problem(error)
-    label, table, index, field = _entry(document, found.location)
-    message = found.message
-    field_named = field is not None and not message.startswith(f"{field}:")
-    if field is None and ":" in message.split(" ", 1)[0]:  # a model check names its own field
-        field = message.split(":", 1)[0]
-    where = f"{label}: {field}: " if field_named else f"{label}: "
-    problem = where + message + found.got + found.more
-    line = _line_of(text, table, index, field) if table is not None else None
-    return PlanFileError(file, problem, line)
-
-
-def parse_plan(text: str, file: str = "plan") -> Plan:
-    """Validate a plan given as TOML text; ``file`` is the name the errors give.
-
-    Raises
-    ------
-    PlanFileError
-        Not TOML (with tomllib's line and column), or an entry that does not validate.
-
-    Examples
-    --------
-    >>> plan = parse_plan('''
-    ... [[coil]]
-    ... name = "bfo"
-    ... count = 2
-    ... target = "10uH"
-    ... [[former]]
-    ... diameter = "12mm"
-    ... length = "40mm"
-    ... count = 3
-    ... [[reel]]
-    ... wire = "26awg"
-    ... length = "30m"
-    ... ''')
-    >>> plan.coil[0].target, plan.former[0].diameter, plan.settings.packing
-    (1e-05, 0.012, 0.9)
-    """
-    try:
-        document = tomllib.loads(text)
-    except tomllib.TOMLDecodeError as error:
-        match = re.search(r"\(at line (\d+), column \d+\)", str(error))
-        line = int(match.group(1)) if match else None
-        reason = re.sub(r"\s*\(at line \d+, column \d+\)", "", str(error))
-        raise PlanFileError(file, f"not a TOML plan: {reason[0].lower()}{reason[1:]}", line) from None
-    try:
-        plan = Plan.model_validate(document)
-    except ValidationError as error:
-        raise _problem(file, text, document, error) from None
-    plan._file, plan._text = str(file), text
-    return plan
-
-
-def load_plan(path) -> Plan:
-    """Read and validate the plan file at ``path`` (only read, never written).
-
-    Raises
-    ------
-    PlanFileError
-        No such file, not UTF-8, not TOML, or an entry that does not validate.
-    """
-    path = Path(path)
-    try:
-        text = path.read_bytes().decode("utf-8")
-    except FileNotFoundError:
-        raise PlanFileError(path, "no plan file there") from None
-    except IsADirectoryError:
-        raise PlanFileError(path, "is a folder, not a plan file") from None
-    except UnicodeDecodeError:
-        raise PlanFileError(path, "not a plan file (not UTF-8 text)") from None
-    except OSError as error:
-        raise PlanFileError(path, f"cannot read it ({error.strerror or error})") from None
-    return parse_plan(text, str(path))

@@ -11,7 +11,7 @@ from coilplan.apparent import ApparentForm, has_frequency_model
 from coilplan.calibrate import Measured
 from coilplan.errors import InfeasibleError, MeasurementWarning
 from coilplan.quantities import format_quantity
-from coilplan.rewind import rewind_fields
+from coilplan.rewind_answer import rewind_fields
 from coilplan.solve import TurnsSolution, search_turns, solve_apparent, solve_turns
 
 __all__ = ["Measured", "check_fits", "given_capacitance", "turns_block", "wire_fields"]

@@ -263,7 +263,7 @@ def test_a_cored_coil_in_a_kit_has_the_core_loss_and_drift_the_form_command_give
     assert placed["apparent_inductance_H"] == pytest.approx(single["apparent_inductance_H"], rel=1e-3)
     # the batched evaluation that ranks the windings (the assignment's Q level) gives the same Q and apparent L
     from coilplan.kit.assign import plan_kit
-    from coilplan.kit.plan import parse_plan
+    from coilplan.kit.plan_file import parse_plan
 
     candidate = plan_kit(parse_plan(CORED)).placements[0].candidate
     assert candidate.q == pytest.approx(placed["q"], rel=2e-3)
