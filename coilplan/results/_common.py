@@ -24,7 +24,7 @@ def turns_block(form, *, turns: int | None, target: float | None, measured: Meas
     Returns ``turns`` and, for an inverse, ``target_H``, ``turns_exact``,
     ``turns_below``, ``turns_above``, ``inductance_below_H``, ``inductance_above_H``.
     With readings (``measured``) and a target, the answer is the rewind of the coil as
-    it is now: :func:`coilplan.rewind.rewind_fields` (``turns_now``, ``turns_change``,
+    it is now: :func:`coilplan.rewind_answer.rewind_fields` (``turns_now``, ``turns_change``,
     ``turns_range`` ...), its warnings given as :class:`MeasurementWarning`.
     With an operating ``frequency`` and a form that estimates its self-capacitance,
     the target is the apparent inductance there (:class:`coilplan.apparent.ApparentForm`);

@@ -17,7 +17,7 @@ def closed_result(form: ClosedCore, *, turns: int | None = None, target: float |
     Returns
     -------
     dict
-        :func:`coilplan.rewind.rewind_fields` plus ``al_H``, ``offset_H`` and, with a wire and a turn
+        :func:`coilplan.rewind_answer.rewind_fields` plus ``al_H``, ``offset_H`` and, with a wire and a turn
         length, ``resistance_change_ohm``.
     """
     if measured is None or target is None:
