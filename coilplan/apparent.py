@@ -214,6 +214,12 @@ def impedance_sweep(form, turns: int, *, centre: float | None = None, temperatur
     inductance = float(form.inductance(turns))
     capacitance = float(form.self_capacitance(turns)) if capacitance is None else float(capacitance)
     srf = float(self_resonant_frequency(inductance, capacitance))
+    if not (math.isfinite(srf) and srf > 0):  # nothing to sweep around: say so before any arithmetic on it
+        from coilplan.errors import InvalidInputError
+
+        raise InvalidInputError("plot", "a coil whose self-resonance is known, to draw |Z| and Q around it (no "
+                                "self-capacitance is estimated for this winding: give the coil's self-capacitance)",
+                                None)
     low = min(srf / 100.0, (centre or srf) / 10.0)
     frequencies = np.geomspace(low, 3.0 * srf, points)
     resistance = np.array([float(form.ac_resistance(turns, f, temperature_C)) for f in frequencies])
