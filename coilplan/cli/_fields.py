@@ -74,7 +74,7 @@ FIELD_OPTIONS = {
     "series": "--series",
     "density": "--density",
     "density_A_per_mm2": "--density",
-    # tuned circuits (coilplan.tank)
+    # tuned circuits (coilplan.tank and coilplan.tank_*)
     "inductance": "--inductance",
     "capacitance": "--capacitance",
     "band": "--band",
