@@ -84,7 +84,7 @@ FIELD_OPTIONS = {
     "points": "--resonance",
     "power": "--power",
     "q": "--q",
-    # unknown turn counts (coilplan.turn_count)
+    # unknown turn counts (coilplan.turn_count and coilplan.turn_count_*)
     "before": "--before",
     "after": "--after",
     "added": "--added",
