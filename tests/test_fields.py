@@ -16,7 +16,8 @@ import pytest
 from click.testing import CliRunner
 
 import coilplan.forms
-from coilplan import materials, quantities, tank
+from coilplan import materials, quantities
+from coilplan import tank_values as tank
 from coilplan import wire as wires
 from coilplan.cli import main
 from coilplan.cli._fields import COMMAND_OPTIONS, FIELD_OPTIONS, in_option_words, option_for

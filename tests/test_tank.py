@@ -14,18 +14,11 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from coilplan.errors import InvalidInputError
-from coilplan.tank import (
-    DEFAULT_FREQUENCY_TOLERANCE,
-    DEFAULT_STRAY_F,
-    HIGH_RF_VOLTAGE_V,
-    drive_fields,
-    fit_resonances,
-    parse_range,
-    parse_resonance,
-    plan_band,
-    solve_tank,
-    tank_cautions,
-)
+from coilplan.tank import solve_tank
+from coilplan.tank_band import DEFAULT_STRAY_F, plan_band
+from coilplan.tank_drive import HIGH_RF_VOLTAGE_V, drive_fields, tank_cautions
+from coilplan.tank_fit import DEFAULT_FREQUENCY_TOLERANCE, fit_resonances
+from coilplan.tank_values import parse_range, parse_resonance
 
 
 def mp_f(inductance, capacitance):

@@ -12,15 +12,10 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 from coilplan.errors import InfeasibleError, InvalidInputError
-from coilplan.turn_count import (
-    DEFAULT_LENGTH_TOLERANCE,
-    added_turns_for_half_turn,
-    count_from_added_turns,
-    count_from_resistance,
-    count_from_test_winding,
-    count_turns,
-    mean_turn_length,
-)
+from coilplan.turn_count import count_turns
+from coilplan.turn_count_added import added_turns_for_half_turn, count_from_added_turns
+from coilplan.turn_count_resistance import DEFAULT_LENGTH_TOLERANCE, count_from_resistance, mean_turn_length
+from coilplan.turn_count_test_winding import count_from_test_winding
 from coilplan.wire import parse_wire
 
 turns_st = st.integers(min_value=2, max_value=3000)

@@ -74,7 +74,7 @@ FIELD_OPTIONS = {
     "series": "--series",
     "density": "--density",
     "density_A_per_mm2": "--density",
-    # tuned circuits (coilplan.tank)
+    # tuned circuits (coilplan.tank and coilplan.tank_*)
     "inductance": "--inductance",
     "capacitance": "--capacitance",
     "band": "--band",
@@ -84,7 +84,7 @@ FIELD_OPTIONS = {
     "points": "--resonance",
     "power": "--power",
     "q": "--q",
-    # unknown turn counts (coilplan.turn_count)
+    # unknown turn counts (coilplan.turn_count and coilplan.turn_count_*)
     "before": "--before",
     "after": "--after",
     "added": "--added",

@@ -14,6 +14,13 @@ from coilplan.cli._types import CountType, PercentType, QuantityType, Temperatur
 from coilplan.errors import InvalidInputError
 from coilplan.quantities import format_length, parse_measurement
 from coilplan.report.count_turns_text import count_turns_lines
+from coilplan.turn_count_ratio import DEFAULT_METER_TOLERANCE
+from coilplan.turn_count_resistance import (
+    DEFAULT_DIAMETER_TOLERANCE,
+    DEFAULT_LENGTH_TOLERANCE,
+    DEFAULT_RESISTANCE_TOLERANCE,
+    mean_turn_length,
+)
 from coilplan.wire import parse_wire
 
 __all__ = ["SignedTurnsType", "count_turns"]
@@ -51,7 +58,7 @@ def _turn_length(turn_length, inner, outer) -> tuple[float | None, str]:
         raise InvalidInputError(missing, f"a perimeter to go with {given[0]} (their mean is the turn length)", None)
     if not given:
         return None, ""
-    mean = turn_count.mean_turn_length(inner, outer)
+    mean = mean_turn_length(inner, outer)
     return mean, f"the mean of the {format_length(inner)} and {format_length(outer)} perimeters"
 
 
@@ -80,14 +87,14 @@ _NEEDS_TEXT = ("no measurements given: added turns needs --before, --after and -
 @click.option("--temperature", type=TemperatureType(), default="20C", show_default=True,
               help="Temperature of the winding when its resistance was read.")
 @click.option("--tolerance", type=PercentType(),
-              help=f"Accuracy of each inductance reading (assumed {turn_count.DEFAULT_METER_TOLERANCE:.0%} "
+              help=f"Accuracy of each inductance reading (assumed {DEFAULT_METER_TOLERANCE:.0%} "
                    "if not given: give your meter's).")
 @click.option("--resistance-tolerance", type=PercentType(),
-              help=f"Accuracy of the resistance reading (assumed {turn_count.DEFAULT_RESISTANCE_TOLERANCE:.0%}).")
+              help=f"Accuracy of the resistance reading (assumed {DEFAULT_RESISTANCE_TOLERANCE:.0%}).")
 @click.option("--diameter-tolerance", type=PercentType(),
-              help=f"Uncertainty of the bare wire diameter (assumed {turn_count.DEFAULT_DIAMETER_TOLERANCE:.0%}).")
+              help=f"Uncertainty of the bare wire diameter (assumed {DEFAULT_DIAMETER_TOLERANCE:.0%}).")
 @click.option("--length-tolerance", type=PercentType(),
-              help=f"Uncertainty of the turn length (assumed {turn_count.DEFAULT_LENGTH_TOLERANCE:.0%}).")
+              help=f"Uncertainty of the turn length (assumed {DEFAULT_LENGTH_TOLERANCE:.0%}).")
 @json_option
 def count_turns(before, after, added, removed, test_winding_text, unknown, resistance, wire_text, turn_length,
                 inner_perimeter, outer_perimeter, lead_resistance, temperature, tolerance, resistance_tolerance,

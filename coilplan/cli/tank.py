@@ -7,11 +7,15 @@ import re
 
 import click
 
-from coilplan import tank as tanks
 from coilplan.cli._common import captured_warnings, emit, json_option
 from coilplan.cli._types import PercentType, QuantityType
 from coilplan.errors import InfeasibleError, InvalidInputError
 from coilplan.report.tank_text import tank_lines
+from coilplan.tank import solve_tank
+from coilplan.tank_band import DEFAULT_STRAY_F, plan_band
+from coilplan.tank_drive import MAX_TANK_Q, TANK_POWER_RANGE, drive_fields, tank_cautions
+from coilplan.tank_fit import DEFAULT_FREQUENCY_TOLERANCE, fit_resonances
+from coilplan.tank_values import parse_range, parse_resonance
 
 __all__ = ["PowerType", "tank"]
 
@@ -29,7 +33,7 @@ class PowerType(click.ParamType):
             return value
         match = _POWER.match(str(value).strip())
         watts = float(match.group(1)) * _POWER_SCALE[match.group(2)] if match else math.nan
-        low, high = tanks.TANK_POWER_RANGE
+        low, high = TANK_POWER_RANGE
         if not (math.isfinite(watts) and watts > 0):
             self.fail(f"expected a power above zero such as 5W or 500mW; got {value!r}", param, ctx)
         if not low <= watts <= high:
@@ -79,16 +83,16 @@ def _check_modes(*, resonances, band_text, capacitor_text, tolerance, others: di
               help="Travel of the variable capacitor, e.g. 10pF:365pF.")
 @click.option("--stray", type=QuantityType("F", allow_zero=True),
               help=f"Stray across the coil: wiring, device input, the coil's self-capacitance (assumed "
-                   f"{tanks.DEFAULT_STRAY_F * 1e12:g} pF if not given).")
+                   f"{DEFAULT_STRAY_F * 1e12:g} pF if not given).")
 @click.option("--padder", type=QuantityType("F"), help="Fixed capacitor in series with the variable capacitor.")
 @click.option("--resonance", "resonance_texts", multiple=True, metavar="C@F",
               help="A known capacitor and the frequency the coil resonated at with it, e.g. 100pF@1.2MHz; "
                    "two or more.")
 @click.option("--tolerance", type=PercentType(),
-              help=f"Accuracy of each resonance reading (assumed {tanks.DEFAULT_FREQUENCY_TOLERANCE:.1%} "
+              help=f"Accuracy of each resonance reading (assumed {DEFAULT_FREQUENCY_TOLERANCE:.1%} "
                    "if not given).")
 @click.option("--power", type=PowerType(), help="Power the tank is driven at, e.g. 5W (a transmitter's tank).")
-@click.option("--q", "q", type=click.FloatRange(min=0, min_open=True, max=tanks.MAX_TANK_Q),
+@click.option("--q", "q", type=click.FloatRange(min=0, min_open=True, max=MAX_TANK_Q),
               help="Q of the loaded tank, e.g. 100.")
 @json_option
 def tank(inductance, capacitance, frequency, band_text, capacitor_text, stray, padder, resonance_texts, tolerance,
@@ -115,27 +119,27 @@ def tank(inductance, capacitance, frequency, band_text, capacitor_text, stray, p
     library_warnings: tuple[str, ...] = ()
     with captured_warnings() as range_warnings:
         if mode == "fit":
-            points = [tanks.parse_resonance(text, "--resonance") for text in resonance_texts]
+            points = [parse_resonance(text, "--resonance") for text in resonance_texts]
             inputs["resonances"] = [{"capacitance_F": c, "frequency_Hz": f} for c, f in points]
             inputs["tolerance"] = tolerance
-            fit = tanks.fit_resonances(points, tolerance=tolerance)
+            fit = fit_resonances(points, tolerance=tolerance)
             result, library_warnings = fit.as_dict(), fit.warnings
         elif mode == "band":
-            capacitor = tanks.parse_range(capacitor_text, "F", "--capacitor")
-            band = tanks.parse_range(band_text, "Hz", "--band") if band_text is not None else None
+            capacitor = parse_range(capacitor_text, "F", "--capacitor")
+            band = parse_range(band_text, "Hz", "--band") if band_text is not None else None
             inputs["capacitor"] = {"min_F": capacitor[0], "max_F": capacitor[1]}
             if band is not None:
                 inputs["band"] = {"low_Hz": band[0], "high_Hz": band[1]}
-            plan = tanks.plan_band(capacitor=capacitor, band=band, inductance=inductance, stray=stray, padder=padder)
+            plan = plan_band(capacitor=capacitor, band=band, inductance=inductance, stray=stray, padder=padder)
             result, shortfall = plan.as_dict(), plan.shortfall()
             # the reactance is largest at the top of the band covered: the highest voltage for a given P and Q
             top_reactance = 2.0 * math.pi * plan.covered[1] * plan.inductance
-            result.update(tanks.drive_fields(reactance=top_reactance, power=power, q=q))
+            result.update(drive_fields(reactance=top_reactance, power=power, q=q))
         else:
-            solution = tanks.solve_tank(inductance=inductance, capacitance=capacitance, frequency=frequency)
+            solution = solve_tank(inductance=inductance, capacitance=capacitance, frequency=frequency)
             result = solution.as_dict()
-            result.update(tanks.drive_fields(reactance=solution.reactance, power=power, q=q))
-    cautions = tanks.tank_cautions(power=power, voltage_rms=result.get("tank_voltage_rms_V"))
+            result.update(drive_fields(reactance=solution.reactance, power=power, q=q))
+    cautions = tank_cautions(power=power, voltage_rms=result.get("tank_voltage_rms_V"))
     emit(command="tank", as_json=as_json, inputs={key: value for key, value in inputs.items() if value is not None},
          result=result, warnings_=[*library_warnings, *range_warnings], cautions=cautions, render=tank_lines)
     if shortfall is not None:

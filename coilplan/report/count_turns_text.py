@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 
 from coilplan.report.text import aligned_rows, turns_word
-from coilplan.turn_count import METHOD_LABELS
+from coilplan.turn_count_estimate import METHOD_LABELS
 
 __all__ = ["count_turns_lines"]
 

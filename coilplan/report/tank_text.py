@@ -1,4 +1,4 @@
-"""Text report of ``coilplan tank`` (from the ``as_dict()`` of the results in :mod:`coilplan.tank`)."""
+"""Text report of ``coilplan tank`` (from the ``as_dict()`` of the results in ``coilplan.tank*``)."""
 
 from __future__ import annotations
 
